@@ -1,0 +1,5 @@
+import type { BenchGroup } from './harness.js';
+import { startupBench } from './startup.js';
+
+/** Every benchmark group; `npm run bench <name>` runs one. Add new groups here. */
+export const GROUPS: readonly BenchGroup[] = [startupBench];

@@ -1,0 +1,18 @@
+import { z } from 'zod';
+import { catalogueSection } from './sections/catalogue.js';
+import { outputSection } from './sections/output.js';
+import { photometrySection } from './sections/photometry.js';
+
+/**
+ * The whole config: one key per section. To add a section (model, priors, sampler, ...), write
+ * `sections/<name>.ts` exporting a strict zod object whose fields carry their defaults, then add one
+ * line here. A section that users may omit entirely takes `.default({})` (or `.optional()`).
+ * Unknown sections and keys are errors, with the nearest valid name suggested.
+ */
+export const configSchema = z.strictObject({
+  catalogue: catalogueSection,
+  photometry: photometrySection,
+  output: outputSection.default({ overwrite: false }),
+});
+
+export type CoevalConfig = z.infer<typeof configSchema>;
