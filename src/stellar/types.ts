@@ -69,3 +69,38 @@ export interface IsochroneSource {
   readonly domain: { logAgeYr: readonly [number, number]; feh: readonly [number, number] };
   isochrone(logAgeYr: number, feh: number, request: IsochroneRequest): Isochrone | undefined;
 }
+
+/**
+ * Turns stellar parameters into absolute magnitudes: bolometric corrections and colour-temperature
+ * relations. Kept separate from evolution so that calibrations can be swapped and tested on their own.
+ */
+export interface PhotometryModel {
+  readonly bands: readonly BandId[];
+  /** Per band: citation, validity range, and behaviour at the range edges. */
+  readonly provenance: Partial<Record<BandId, string>>;
+  /**
+   * Absolute magnitudes of n stars in `bands`: out[b][k] for star k. Inputs are log10(L / Lsun),
+   * log10(Teff / K) and log10(g / cm s^-2); feh is [Fe/H]. Must be continuous in every input (a jump
+   * becomes a cliff in the posterior) and must not allocate per star.
+   */
+  absoluteMagnitudes(
+    bands: readonly BandId[],
+    logL: Float64Array,
+    logTeff: Float64Array,
+    logg: Float64Array,
+    feh: number,
+    out: Float64Array[],
+    n: number,
+  ): void;
+}
+
+/**
+ * Interstellar extinction by band. A_b = R_b * E(B-V), where R_b may depend on the star's intrinsic
+ * spectrum (Gaia's broad bands): the ratio is evaluated per star at E(B-V) -> 0 and applied linearly.
+ */
+export interface ExtinctionModel {
+  /** Law, R_V, and the source of any colour-dependent coefficients. */
+  readonly provenance: string;
+  /** out[b][k] = A_b / E(B-V) for star k with intrinsic log Teff and log g, at metallicity feh. */
+  ratios(bands: readonly BandId[], logTeff: Float64Array, logg: Float64Array, feh: number, out: Float64Array[], n: number): void;
+}
