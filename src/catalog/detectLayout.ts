@@ -120,18 +120,19 @@ export function detectLayout(
 }
 
 /**
- * A first line is a header when some column that holds a number on the second line holds a non-number on
- * the first; with no second line, when any of its cells is not a number.
+ * A first line is a header when all its cells are text, or when some column that holds a number on the
+ * second line holds text on the first; with no second line, when any of its cells is text.
  */
 function looksLikeHeader(first: string[], second: string[] | undefined): boolean {
   const isText = (s: string): boolean => s.trim() !== '' && parseNumber(s) === undefined;
+  // A first line of names only is a header: a catalogue without numbers on its first data line is implausible.
+  if (first.every(isText)) return true;
   if (!second) return first.some(isText);
   for (let j = 0; j < first.length; j++) {
     const b = second[j];
     if (isText(first[j]) && b !== undefined && Number.isFinite(parseNumber(b) ?? Number.NaN)) return true;
   }
-  // A header of names above a table whose every column is text (rare), or identical shapes: decide by the first line alone.
-  return first.every(isText) && !second.every(isText);
+  return false;
 }
 
 function truncate(s: string): string {

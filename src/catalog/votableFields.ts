@@ -91,7 +91,10 @@ export function binaryNumber(field: VoField, buf: Buffer, at: number): number {
       return field.nullValue !== undefined && v === BigInt(field.nullValue.trim()) ? Number.NaN : Number(v);
     }
     case 'bit':
-      return (buf[at] & 0x80) !== 0 ? 1 : 0;
+      // Bits are packed from the most significant bit, and padding bits shall be 0 (section 2.1), so for a
+      // single bit any non-zero byte means 1. Reading it so also accepts astropy's writer (at least 5.2),
+      // which stores a true scalar bit as 0x08.
+      return buf[at] !== 0 ? 1 : 0;
     default:
       return Number.NaN;
   }
