@@ -57,7 +57,9 @@ function sigmaMag(m: number, limit: number): number {
 const rows: string[] = ['star,Bmag,e_Bmag,Vmag,e_Vmag,Imag,e_Imag'];
 const fmt = (x: number, d: number): string => x.toFixed(d);
 for (let i = 0; i < N_CLUSTER + N_FIELD; i++) {
-  let { v, bv } = i < N_CLUSTER ? clusterStar() : { v: 14 + 9.6 * uniform(), bv: 0.3 + 1.3 * uniform() };
+  const star = i < N_CLUSTER ? clusterStar() : { v: 14 + 9.6 * uniform(), bv: 0.3 + 1.3 * uniform() };
+  const bv = star.bv;
+  let v = star.v;
   // A fifth of main-sequence stars are brightened by an unseen companion (up to 0.75 mag).
   if (i < N_CLUSTER && v > 19.2 && uniform() < 0.2) v -= 0.75 * uniform();
   const vi = 0.05 + 1.05 * bv;

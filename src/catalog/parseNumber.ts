@@ -20,8 +20,9 @@ export function parseNumber(raw: string): number | undefined {
   }
   const lower = s.toLowerCase();
   if (MISSING.has(lower)) return Number.NaN;
-  if (lower === 'true' || lower === 't') return 1;
-  if (lower === 'false' || lower === 'f') return 0;
+  // Whole words only: a single T or F is as likely a column named t or f.
+  if (lower === 'true') return 1;
+  if (lower === 'false') return 0;
   if (lower === 'inf' || lower === '+inf' || lower === 'infinity' || lower === '+infinity') return Number.POSITIVE_INFINITY;
   if (lower === '-inf' || lower === '-infinity') return Number.NEGATIVE_INFINITY;
   if (/^[+-]?(\d+\.?\d*|\.\d+)[dD][+-]?\d+$/.test(s)) return Number(s.replace(/[dD]/, 'e'));

@@ -51,6 +51,15 @@ export async function readFits(path: string, req: TableRequest): Promise<ColumnT
 
 function readFitsFrom(file: RandomAccess, path: string, req: TableRequest): ColumnTable {
   if (file.size === 0) throw new InputError('the file is empty', { where: { file: path }, hint: 'check that the download or copy finished' });
+  const magic = file.read(0, 9).toString('latin1');
+  if (magic !== 'SIMPLE  =') {
+    throw new InputError('this is not a FITS file: it does not begin with SIMPLE = T', {
+      where: { file: path, hdu: 0 },
+      found: magic,
+      expected: 'SIMPLE = T as the first header card (FITS Standard 4.0, section 4.4.1.1)',
+      hint: 'check catalogue.format and the file',
+    });
+  }
   const seen: HduInfo[] = [];
   let offset = 0;
   for (let hdu = 0; ; hdu++) {
