@@ -42,16 +42,20 @@ export function buildCatalog(table: ColumnTable, cat: CatalogueConfig, phot: Pho
     const b = phot[band];
     if (!b) throw new Error('internal: configured band without columns');
     if ('mag' in b) {
-      const mag = Float64Array.from(num(b.mag));
-      const err = Float64Array.from(num(b.err));
+      // The table's own arrays are used unless this band has sentinels of its own (they must not leak into
+      // other uses of the same column); nothing below writes to them.
+      const own = b.missing.length > 0;
+      const mag = own ? Float64Array.from(num(b.mag)) : num(b.mag);
+      const err = own ? Float64Array.from(num(b.err)) : num(b.err);
       applySentinels(mag, b.missing);
       applySentinels(err, b.missing);
       requireSomeValues(mag, b.mag, band, 'magnitude', table);
       requireSomeValues(err, b.err, band, 'magnitude error', table);
       return { band, mag, err, valueColumn: b.mag, errorColumn: b.err, flux: false };
     }
-    const f = Float64Array.from(num(b.flux));
-    const sf = Float64Array.from(num(b.flux_err));
+    const own = b.missing.length > 0;
+    const f = own ? Float64Array.from(num(b.flux)) : num(b.flux);
+    const sf = own ? Float64Array.from(num(b.flux_err)) : num(b.flux_err);
     applySentinels(f, b.missing);
     applySentinels(sf, b.missing);
     requireSomeValues(f, b.flux, band, 'flux', table, (v) => v > 0);
@@ -95,7 +99,7 @@ export function buildCatalog(table: ColumnTable, cat: CatalogueConfig, phot: Pho
   for (let i = 0; i < n; i++) {
     if (!keep[i]) continue;
     let any = false;
-    for (const b of bands) if (b.mag[i] === b.mag[i]) any = true;
+    for (const b of bands) if (measured(b, i)) any = true;
     if (!any) {
       keep[i] = 0;
       noPhot++;
@@ -114,7 +118,7 @@ export function buildCatalog(table: ColumnTable, cat: CatalogueConfig, phot: Pho
   }
   for (const b of bands) {
     let any = false;
-    for (let i = 0; i < n && !any; i++) if (keep[i] && b.mag[i] === b.mag[i]) any = true;
+    for (let i = 0; i < n && !any; i++) if (keep[i] && measured(b, i)) any = true;
     if (!any) {
       throw new InputError(`after the filters, no star has a magnitude in band ${b.band}`, {
         where: { file, field: b.valueColumn },
@@ -130,12 +134,19 @@ export function buildCatalog(table: ColumnTable, cat: CatalogueConfig, phot: Pho
     for (let i = 0; i < n; i++) if (keep[i]) out[k++] = src[i];
     return out;
   };
+  // A band's magnitude and error are both present or both NaN.
+  const pickMeasured = (b: BandData, src: Float64Array): Float64Array => {
+    const out = sharedFloat64(kept);
+    let k = 0;
+    for (let i = 0; i < n; i++) if (keep[i]) out[k++] = measured(b, i) ? src[i] : Number.NaN;
+    return out;
+  };
   const catalog: Catalog = {
     source: { path: file, format: table.format, hdu: table.hdu, rowsRead: n },
     nStars: kept,
     bands: bands.map((b) => b.band),
-    mag: bands.map((b) => pick(b.mag)),
-    err: bands.map((b) => pick(b.err)),
+    mag: bands.map((b) => pickMeasured(b, b.mag)),
+    err: bands.map((b) => pickMeasured(b, b.err)),
     filters,
   };
   if (cat.id !== undefined) {
@@ -162,17 +173,15 @@ function requireSomeValues(a: Float64Array, column: string, band: BandId, what: 
   });
 }
 
+/** Missing or infinite in either magnitude or error: the star has no measurement in this band. */
+function measured(b: BandData, i: number): boolean {
+  return Number.isFinite(b.mag[i]) && Number.isFinite(b.err[i]);
+}
+
 function checkBand(b: BandData, table: ColumnTable, keep: Uint8Array): void {
   for (let i = 0; i < b.mag.length; i++) {
-    if (!keep[i]) continue;
-    const m = b.mag[i];
+    if (!keep[i] || !measured(b, i)) continue;
     const e = b.err[i];
-    if (!Number.isFinite(m) || !Number.isFinite(e)) {
-      // Missing or infinite in either: the star has no measurement in this band.
-      b.mag[i] = Number.NaN;
-      b.err[i] = Number.NaN;
-      continue;
-    }
     if (e <= 0) {
       const raw = table.numbers.get(b.errorColumn)?.[i];
       throw new InputError(`band ${b.band}: the ${b.flux ? 'flux error' : 'magnitude error'} is ${raw === 0 ? 'zero' : 'negative'}`, {

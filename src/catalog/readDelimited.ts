@@ -129,16 +129,16 @@ export async function readDelimited(path: string, req: TableRequest, preset?: De
   const offsets = new GrowableFloat64(estimate);
   const nNames = names.length;
 
-  let pending = firstIsData;
   let checkedSeparatorLine = false;
-  for (;;) {
-    if (!pending && !(await nextRecord())) break;
-    pending = false;
+  const nNumbers = numberList.length;
+  const nTexts = textList.length;
+  // One record, synchronously: awaiting per record would cost a microtask per star.
+  const takeRecord = (): void => {
     const line = sc.recordLine;
     if (!checkedSeparatorLine) {
       checkedSeparatorLine = true;
       // A rule of dashes under the header (`----- -----`), as some tools print, is not data.
-      if (!firstIsData && isRule(sc)) continue;
+      if (!firstIsData && isRule(sc)) return;
     }
     const nf = sc.nFields;
     if (nf !== nNames && !(nf > nNames && trailingEmpty(sc, nNames))) {
@@ -151,10 +151,9 @@ export async function readDelimited(path: string, req: TableRequest, preset?: De
             : 'a text value may contain the delimiter without quotes (put it in double quotes), or the delimiter may be wrong',
       });
     }
-    for (let k = 0; k < numberList.length; k++) {
+    for (let k = 0; k < nNumbers; k++) {
       const c = numberList[k];
-      const raw = sc.asciiText(c.idx);
-      const v = parseNumber(raw);
+      const v = sc.fastNumber(c.idx) ?? parseNumber(sc.asciiText(c.idx));
       if (v === undefined) {
         const text = sc.text(c.idx);
         const first = lines.length === 0;
@@ -171,9 +170,17 @@ export async function readDelimited(path: string, req: TableRequest, preset?: De
       }
       c.out.push(v);
     }
-    for (let k = 0; k < textList.length; k++) textList[k].out.push(sc.text(textList[k].idx));
+    for (let k = 0; k < nTexts; k++) textList[k].out.push(sc.text(textList[k].idx));
     lines.push(line);
     offsets.push(sc.recordOffset());
+  };
+
+  if (firstIsData) takeRecord();
+  for (;;) {
+    while (sc.next(done)) takeRecord();
+    if (done) break;
+    const c = await pull();
+    if (c) sc.push(c);
   }
 
   const nRows = lines.length;

@@ -123,3 +123,31 @@ describe('delimited text', () => {
     expect(e.hint).toMatch(/did you mean "VMAG"/);
   });
 });
+
+describe('the byte-level number path', () => {
+  it('gives exactly what Number() gives for plain decimals, and defers everything else', async () => {
+    // Number() is the reference: ECMAScript's StringToNumber is correctly rounded.
+    const cells = ['0', '-0', '+3', '15.12345', '-0.000123', '.5', '5.', '123456789012345', '1234567890.12345', '0.1234567890123456789', '99999999999999999', '1e3', '7.1D-2', '  42.5  ', '00012.50'];
+    const p = file(`x\n${cells.map((c) => `"${c}"`.replace(/^"(.*)"$/, '$1')).join('\n')}\n`);
+    const t = await readTable(p, 'csv', req([num('x')]));
+    const got = Array.from(t.numbers.get('x') as Float64Array);
+    cells.forEach((c, i) => {
+      const want = /D/.test(c) ? Number(c.replace('D', 'e')) : Number(c);
+      expect(Object.is(got[i], want), `${JSON.stringify(c)}: ${got[i]} vs ${want}`).toBe(true);
+    });
+  });
+
+  it('matches Number() on many random decimals', async () => {
+    // Seeded linear congruential sequence (Numerical Recipes constants); values with 1-15 digits.
+    let s = 12345;
+    const next = () => (s = (s * 1664525 + 1013904223) % 4294967296) / 4294967296;
+    const cells = Array.from({ length: 20000 }, () => (next() * 10 ** Math.floor(next() * 8) * (next() < 0.5 ? -1 : 1)).toFixed(Math.floor(next() * 9)));
+    const t = await readTable(file(`x\n${cells.join('\n')}\n`), 'csv', req([num('x')]));
+    const got = t.numbers.get('x') as Float64Array;
+    let bad = 0;
+    cells.forEach((c, i) => {
+      if (!Object.is(got[i], Number(c))) bad++;
+    });
+    expect(bad).toBe(0);
+  });
+});
