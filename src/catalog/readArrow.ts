@@ -2,29 +2,41 @@
  * Arrow IPC, file ("ARROW1" magic, random access) and stream formats, with apache-arrow. Record batches are
  * visited one at a time and only the requested columns are copied out.
  */
-import { RecordBatchReader, Type, type DataType, type Field, type Vector } from 'apache-arrow';
+import { open } from 'node:fs/promises';
+import { RecordBatchReader, Type, type AsyncRecordBatchFileReader, type AsyncRecordBatchStreamReader, type DataType, type Field, type Vector } from 'apache-arrow';
 import { InputError } from '../core/errors.js';
 import type { ColumnRequest, ColumnTable, TableRequest } from './columnTable.js';
 import { GrowableFloat64 } from './growable.js';
-import { readAllBytes } from './openBytes.js';
+import { isGzip, readAllBytes } from './openBytes.js';
+
+type AsyncRecordBatchReaders = AsyncRecordBatchFileReader | AsyncRecordBatchStreamReader;
 import { requireColumns } from './requireColumns.js';
 
 const NUMERIC = new Set<Type>([Type.Int, Type.Float, Type.Bool, Type.Null]);
 const TEXT = new Set<Type>([Type.Utf8, Type.LargeUtf8, Type.Int, Type.Float, Type.Bool, Type.Null]);
 
 export async function readArrow(path: string, req: TableRequest): Promise<ColumnTable> {
-  const bytes = readAllBytes(path);
-  let reader: RecordBatchReader;
+  // A plain file is read through a file handle, batch by batch; a gzipped one is decompressed in memory.
+  const handle = isGzip(path) ? undefined : await open(path, 'r');
   try {
-    reader = RecordBatchReader.from(bytes);
-    reader.open();
+    let reader: RecordBatchReader | AsyncRecordBatchReaders;
+    try {
+      reader = handle ? await RecordBatchReader.from(handle) : RecordBatchReader.from(readAllBytes(path));
+    } catch (e) {
+      throw notArrow(path, e);
+    }
+    return await readBatches(path, req, reader);
+  } finally {
+    await handle?.close();
+  }
+}
+
+async function readBatches(path: string, req: TableRequest, source: RecordBatchReader | AsyncRecordBatchReaders): Promise<ColumnTable> {
+  const reader = source;
+  try {
+    await reader.open({ autoDestroy: false });
   } catch (e) {
-    throw new InputError('the Arrow IPC file could not be read', {
-      where: { file: path },
-      found: (e as Error).message,
-      expected: 'an Arrow IPC file or stream',
-      hint: 'the file may be truncated or not Arrow at all: check catalogue.format',
-    });
+    throw notArrow(path, e);
   }
   const fields: Field[] = reader.schema.fields;
   const names = fields.map((f) => f.name);
@@ -42,7 +54,7 @@ export async function readArrow(path: string, req: TableRequest): Promise<Column
   let nRows = 0;
   let batchNo = 0;
   try {
-    for (const batch of reader) {
+    for await (const batch of reader) {
       batchNo++;
       for (const job of jobs.values()) {
         const vec = batch.getChildAt(job.field) as Vector;
@@ -84,6 +96,15 @@ export async function readArrow(path: string, req: TableRequest): Promise<Column
     texts,
     locate: (row, column) => ({ file: path, row: row + 1, field: column }),
   };
+}
+
+function notArrow(path: string, e: unknown): InputError {
+  return new InputError('the Arrow IPC file could not be read', {
+    where: { file: path },
+    found: (e as Error).message,
+    expected: 'an Arrow IPC file or stream',
+    hint: 'the file may be truncated or not Arrow at all: check catalogue.format',
+  });
 }
 
 function baseType(t: DataType): DataType {
