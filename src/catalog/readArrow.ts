@@ -88,7 +88,7 @@ async function readBatches(path: string, req: TableRequest, source: RecordBatchR
   return {
     path,
     format: 'arrow',
-    detail: `Arrow IPC ${reader.isFile() ? 'file' : 'stream'}`,
+    detail: `IPC ${reader.isFile() ? 'file' : 'stream'} format`,
     nRows,
     names,
     units,

@@ -78,7 +78,7 @@ export async function readEcsv(path: string, req: TableRequest): Promise<ColumnT
     format: 'ecsv',
     layout: { sep: delimiter === ',' ? 0x2c : 'whitespace', header: true },
     units,
-    detail: `ECSV ${version[1]}, ${delimiter === ',' ? 'comma' : 'space'}-delimited`,
+    detail: `version ${version[1]}, ${delimiter === ',' ? 'comma' : 'space'}-delimited`,
     checkHeader(names, line) {
       const expected = columns.map((c) => c.name);
       if (names.length !== expected.length || names.some((n, i) => n !== expected[i])) {

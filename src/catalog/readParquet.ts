@@ -82,7 +82,7 @@ export async function readParquet(path: string, req: TableRequest): Promise<Colu
   return {
     path,
     format: 'parquet',
-    detail: `Parquet, ${metadata.row_groups.length} row group${metadata.row_groups.length === 1 ? '' : 's'}`,
+    detail: `${metadata.row_groups.length} row group${metadata.row_groups.length === 1 ? '' : 's'}`,
     nRows,
     names,
     units: new Map(),

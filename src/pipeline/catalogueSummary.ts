@@ -5,7 +5,7 @@ import { quantileSorted } from '../core/quantile.js';
 
 export interface BandSummary {
   band: BandId;
-  /** The columns it came from, in words: `Vmag ± e_Vmag`, or `flux F ± F_err, zero point 25.69`. */
+  /** The columns it came from, in words: `Vmag ± e_Vmag`, or `F ± F_err (flux, zp 25.69)`. */
   from: string;
   measured: number;
   missing: number;
@@ -37,7 +37,7 @@ export function summarizeCatalogue(catalog: Catalog, config: CoevalConfig): Cata
   const warnings: string[] = [];
   const bands = catalog.bands.map((band, b) => {
     const spec = config.photometry[band];
-    const from = !spec ? band : 'mag' in spec ? `${spec.mag} ± ${spec.err}` : `flux ${spec.flux} ± ${spec.flux_err}, zero point ${spec.zero_point}`;
+    const from = !spec ? band : 'mag' in spec ? `${spec.mag} ± ${spec.err}` : `${spec.flux} ± ${spec.flux_err} (flux, zp ${spec.zero_point})`;
     const mag = catalog.mag[b];
     const errs: number[] = [];
     let lo = Infinity;

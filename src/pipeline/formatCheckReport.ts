@@ -29,7 +29,7 @@ function formatSection(s: CheckSection, cwd: string): string[] {
 function formatCatalogue(c: CatalogueSummary, cwd: string): string[] {
   const lines: string[] = [];
   lines.push(`catalogue   ${shortPath(c.path, cwd)}`);
-  lines.push(`            ${c.format}${c.detail ? ` (${c.detail})` : ''}; ${c.rowsRead} rows read`);
+  lines.push(`            ${FORMAT_NAMES[c.format] ?? c.format}${c.detail ? `, ${c.detail}` : ''}; ${c.rowsRead} rows read`);
   lines.push(`stars       ${c.nStars} after filters; bands ${c.bands.map((b) => b.band).join(', ')}`);
   if (c.filters.length === 0) lines.push('filters     none');
   c.filters.forEach((f, k) => lines.push(`${k === 0 ? 'filters' : ''}`.padEnd(12) + `${f.rule}: ${f.dropped} dropped`));
@@ -60,6 +60,10 @@ function formatCatalogue(c: CatalogueSummary, cwd: string): string[] {
   lines.push(c.ids.present ? `ids         column "${c.ids.column}"` : 'ids         none mapped (catalogue.id); stars are numbered by row');
   return lines;
 }
+
+const FORMAT_NAMES: Record<string, string> = {
+  csv: 'CSV', tsv: 'TSV', whitespace: 'text table', ecsv: 'ECSV', fits: 'FITS', votable: 'VOTable', arrow: 'Arrow', parquet: 'Parquet',
+};
 
 function err(x: number): string {
   return Number.isFinite(x) ? x.toFixed(4) : '-';
