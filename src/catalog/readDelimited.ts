@@ -129,16 +129,18 @@ export async function readDelimited(path: string, req: TableRequest, preset?: De
   const offsets = new GrowableFloat64(estimate);
   const nNames = names.length;
 
-  let checkedSeparatorLine = false;
+  // Lines between the header and the data that some services print: a rule of dashes, or (VizieR's TSV)
+  // a units line and then a rule. Decided by looking ahead in the first part of the file.
+  const units = preset?.units ?? new Map<string, string>();
+  let preamble = firstIsData ? 0 : preambleLines(prefix, done, layout.sep, req.comment, names, units);
   const nNumbers = numberList.length;
   const nTexts = textList.length;
   // One record, synchronously: awaiting per record would cost a microtask per star.
   const takeRecord = (): void => {
     const line = sc.recordLine;
-    if (!checkedSeparatorLine) {
-      checkedSeparatorLine = true;
-      // A rule of dashes under the header (`----- -----`), as some tools print, is not data.
-      if (!firstIsData && isRule(sc)) return;
+    if (preamble > 0) {
+      preamble--;
+      return;
     }
     const nf = sc.nFields;
     if (nf !== nNames && !(nf > nNames && trailingEmpty(sc, nNames))) {
@@ -164,7 +166,7 @@ export async function readDelimited(path: string, req: TableRequest, preset?: De
           hint:
             numberHint(text) ??
             (first && !firstIsData
-              ? 'if this line holds units or a second header line, remove it or start it with the comment prefix'
+              ? 'if this line is a second header line, remove it or start it with the comment prefix'
               : 'fix the value, or map a different column'),
         });
       }
@@ -202,7 +204,7 @@ export async function readDelimited(path: string, req: TableRequest, preset?: De
     detail: preset?.detail ?? `${separatorName(layout.sep)}, ${headerNote}`,
     nRows,
     names,
-    units: preset?.units ?? new Map(),
+    units,
     numbers: new Map(numberList.map((c) => [c.name, c.out.view()])),
     texts: new Map(textList.map((c) => [c.name, c.out])),
     locate(row, column) {
@@ -227,6 +229,34 @@ function fieldTexts(sc: RecordScanner): string[] {
 function isRule(sc: RecordScanner): boolean {
   for (let f = 0; f < sc.nFields; f++) if (!/^[-=+:|]+$/.test(sc.text(f))) return false;
   return true;
+}
+
+/** How many lines after the header are not data: 1 for a rule, 2 for a units line and a rule. */
+function preambleLines(prefix: Buffer, whole: boolean, sep: Separator, comment: string, names: string[], units: Map<string, string>): number {
+  const sc = new RecordScanner(sep, comment);
+  sc.push(prefix);
+  if (!sc.next(whole) || !sc.next(whole)) return 0;
+  if (isRule(sc)) return 1;
+  if (!isUnitsLine(sc, names.length)) return 0;
+  const unitTexts = Array.from({ length: sc.nFields }, (_, f) => sc.text(f));
+  if (!sc.next(whole) || !isRule(sc)) return 0;
+  unitTexts.forEach((u, f) => {
+    if (u !== '') units.set(names[f], u);
+  });
+  return 2;
+}
+
+/** A line of unit names under the header: the right number of cells, none a number, some not empty. */
+function isUnitsLine(sc: RecordScanner, nNames: number): boolean {
+  if (sc.nFields !== nNames) return false;
+  let any = false;
+  for (let f = 0; f < sc.nFields; f++) {
+    const t = sc.text(f);
+    if (t === '') continue;
+    if (parseNumber(t) !== undefined || t.length > 24) return false;
+    any = true;
+  }
+  return any;
 }
 
 function trailingEmpty(sc: RecordScanner, from: number): boolean {

@@ -151,3 +151,15 @@ describe('the byte-level number path', () => {
     expect(bad).toBe(0);
   });
 });
+
+describe('service layouts', () => {
+  it("reads VizieR's tab-separated layout: comments, header, a units line and a rule of dashes", async () => {
+    // The layout of VizieR's "tab-separated values" output (common practice; invented values).
+    const text = ['#', '#Title: an invented table', '#Column\tRAJ2000\t(F10.6)', 'RAJ2000\tVmag\te_Vmag\tID', 'deg\tmag\tmag\t', '----------\t------\t------\t---', '10.000001\t15.123\t0.012\tT7-1', '10.000002\t\t\tT7-2', ''].join('\n');
+    const t = await readTable(file(text, '.tsv'), 'tsv', req([num('Vmag'), num('e_Vmag'), txt('ID')]));
+    expect(t.nRows).toBe(2);
+    expect(Array.from(t.numbers.get('Vmag') as Float64Array)).toEqual([15.123, NaN]);
+    expect(t.units.get('Vmag')).toBe('mag');
+    expect(t.texts.get('ID')).toEqual(['T7-1', 'T7-2']);
+  });
+});
