@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
+import { gridSection } from './sections/grid.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
 import { priorsSection } from './sections/priors.js';
@@ -15,6 +16,7 @@ export const configSchema = z.strictObject({
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
   priors: priorsSection.optional(),
+  grid: gridSection.optional(),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;

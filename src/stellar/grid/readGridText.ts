@@ -175,13 +175,17 @@ export function readGridText(path: string, req: RawTableRequest): RawGridTable {
     }
     fields.split(line, delim);
     if (names === undefined) {
+      // The first line names the columns when all its fields are words; else the names come from the last
+      // comment line above it with as many words (the usual layout), or, failing both, from a first line
+      // that is mostly words. A data row may hold a word or two (a stage label).
       const texts = fields.texts(line);
-      if (texts.some((t) => parseNumber(t) === undefined)) {
+      const words = texts.filter((t) => parseNumber(t) === undefined).length;
+      const fromComment = words === texts.length ? undefined : headerFromComments(pendingComments, delim, fields.n);
+      if (!fromComment && 2 * words >= texts.length) {
         setHeader(texts, lineNo, `header on line ${lineNo}`);
         sinceData = true;
         return;
       }
-      const fromComment = headerFromComments(pendingComments, delim, fields.n);
       if (fromComment) setHeader(fromComment, lineNo, 'column names from the comment line above the first row');
       else setHeader(texts.map((_, k) => `col${k + 1}`), lineNo, `no header: columns named col1..col${fields.n}`);
     } else if (fields.n === names.length && isRepeatedHeader(line, fields, names)) {
