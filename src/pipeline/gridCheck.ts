@@ -110,7 +110,7 @@ function checkPriors(loaded: LoadedConfig, rows: GridRow[], gridName: string, wh
         hint: `use truncated_normal with min >= ${fmt(fehLo)} and max <= ${fmt(fehHi)}`,
       });
     }
-    if (s[0] < fehLo || s[1] > fehHi) {
+    if (s[0] < fehLo - 1e-6 || s[1] > fehHi + 1e-6) {
       throw new ConfigError(`the prior on feh reaches ${s[0] < fehLo ? s[0] : s[1]}, outside ${gridName}`, {
         where: where(['priors', 'feh']),
         found: { min: s[0], max: s[1] },

@@ -310,6 +310,8 @@ function emptyIsochrone(n: number, nb: number, logAgeYr: number, feh: number, ba
  * two otherwise; undefined outside.
  */
 function bracket(n: number, at: (i: number) => number, x: number): [number, number][] | undefined {
+  // A dimension with one value (a single-metallicity grid) is a point: accept values within SAME_VALUE.
+  if (n === 1) return Math.abs(x - at(0)) <= SAME_VALUE ? [[0, 1]] : undefined;
   if (n === 0 || x < at(0) || x > at(n - 1)) return undefined;
   let lo = 0;
   let hi = n - 1;
