@@ -13,7 +13,8 @@
  * The phase coordinates at which the result is given are the union of the corners' own vertex coordinates.
  * Each corner is piecewise linear in u between its vertices, so the result is exactly the weighted mean of
  * the corners' polylines, with no resampling error. Hence:
- *  - at a grid node the result is that isochrone itself (returned row for row), and
+ *  - at a grid node the result is that isochrone itself (its rows, in order; a row repeats only where a
+ *    zero-length phase segment sits), and
  *  - the result is continuous in (log age, [Fe/H]): across a cell edge the two cells' results are the same
  *    piecewise-linear function of u (extra vertices lie on it).
  * Where corners cover different ranges of u (EEP tables that stop at different points), the result spans
@@ -118,11 +119,14 @@ export class GridSource implements IsochroneSource {
     return this.interpolate(corners, logAgeYr, feh, request.bands, bandIdx);
   }
 
-  /** A grid isochrone exactly as stored (one vertex per row). */
+  /**
+   * A grid isochrone exactly as stored: its rows in order, in phase-coordinate form. Where the curve has a
+   * zero-length segment (a landmark it lacks, or a stage it skips) the row there appears once per segment
+   * boundary, each with its own phase coordinate, exactly as interpolated results near this node have it.
+   */
   private node(k: number, logAgeYr: number, feh: number, bands: readonly BandId[], bandIdx: number[]): Isochrone {
     const c = this.curves[k];
-    const keep: number[] = [];
-    for (let i = 0; i < c.src.length; i++) if (i === 0 || c.src[i] !== c.src[i - 1]) keep.push(i);
+    const keep = Array.from(c.src, (_, i) => i);
     const n = keep.length;
     const g = this.grid;
     const iso = emptyIsochrone(n, bands.length, logAgeYr, feh, bands, this.provenance);
@@ -198,13 +202,12 @@ export class GridSource implements IsochroneSource {
     for (let p = p0; p <= p1; p++) {
       combineAt(p, q);
       uOut[q] = U[p];
-      // Points where every corner waits (a zero-length segment shared by all) repeat the previous one.
-      if (out[0][q] === out[0][q - 1] && out[2][q] === out[2][q - 1] && out[4][q] === out[4][q - 1]) continue;
       q++;
     }
+    // Points where every corner waits (a zero-length segment shared by all) repeat a row with a higher
+    // phase coordinate; they are kept, as at the nodes, so that results stay continuous in u.
     endAt(uHi, q);
-    if (!(out[0][q] === out[0][q - 1] && out[2][q] === out[2][q - 1] && out[4][q] === out[4][q - 1])) q++;
-    const n = q;
+    const n = q + 1;
     const nb = bandIdx.length;
     return {
       logAgeYr,
