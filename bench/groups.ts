@@ -1,6 +1,7 @@
 import { catalogBench } from './catalog.js';
+import { gridsBench } from './grids.js';
 import type { BenchGroup } from './harness.js';
 import { startupBench } from './startup.js';
 
 /** Every benchmark group; `npm run bench <name>` runs one. Add new groups here. */
-export const GROUPS: readonly BenchGroup[] = [startupBench, catalogBench];
+export const GROUPS: readonly BenchGroup[] = [startupBench, catalogBench, gridsBench];

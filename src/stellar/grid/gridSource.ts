@@ -68,6 +68,8 @@ export class GridSource implements IsochroneSource {
   private readonly curves: PreparedCurve[];
   private readonly columns: Float64Array[];
   private readonly cells = new Map<string, Cell>();
+  /** Node isochrones in phase-coordinate form, built on first request (copies are returned). */
+  private readonly nodes = new Map<number, { cols: Float64Array[]; u: Float64Array; phase: Uint8Array }>();
   private cacheBytes = 0;
   private readonly maxCacheBytes: number;
 
@@ -125,24 +127,33 @@ export class GridSource implements IsochroneSource {
    * boundary, each with its own phase coordinate, exactly as interpolated results near this node have it.
    */
   private node(k: number, logAgeYr: number, feh: number, bands: readonly BandId[], bandIdx: number[]): Isochrone {
-    const c = this.curves[k];
-    const keep = Array.from(c.src, (_, i) => i);
-    const n = keep.length;
-    const g = this.grid;
-    const iso = emptyIsochrone(n, bands.length, logAgeYr, feh, bands, this.provenance);
-    for (let p = 0; p < n; p++) {
-      const i = keep[p];
-      const r = c.src[i];
-      iso.massInitial[p] = g.massInitial[r];
-      iso.massCurrent[p] = g.massCurrent[r];
-      iso.logTeff[p] = g.logTeff[r];
-      iso.logg[p] = g.logg[r];
-      iso.logL[p] = g.logL[r];
-      iso.phaseCoord[p] = c.u[i];
-      iso.phase[p] = c.phase[i];
-      for (let b = 0; b < bandIdx.length; b++) iso.absMag[b][p] = g.mag[bandIdx[b]][r];
+    let cached = this.nodes.get(k);
+    if (!cached) {
+      const c = this.curves[k];
+      const m = c.src.length;
+      const cols = this.columns.map((arr) => {
+        const o = new Float64Array(m);
+        for (let i = 0; i < m; i++) o[i] = arr[c.src[i]];
+        return o;
+      });
+      cached = { cols, u: c.u, phase: c.phase };
+      this.nodes.set(k, cached);
     }
-    return iso;
+    const cols = cached.cols;
+    return {
+      logAgeYr,
+      feh,
+      massInitial: cols[0].slice(),
+      massCurrent: cols[1].slice(),
+      phase: cached.phase.slice(),
+      phaseCoord: cached.u.slice(),
+      logL: cols[4].slice(),
+      logTeff: cols[2].slice(),
+      logg: cols[3].slice(),
+      bands: [...bands],
+      absMag: bandIdx.map((b) => cols[BASE_COLUMNS + b].slice()),
+      provenance: this.provenance,
+    };
   }
 
   private interpolate(corners: { iso: number; w: number }[], logAgeYr: number, feh: number, bands: readonly BandId[], bandIdx: number[]): Isochrone {
@@ -164,65 +175,86 @@ export class GridSource implements IsochroneSource {
     let p1 = P - 1;
     while (p1 >= 0 && U[p1] >= uHi) p1--;
     // Output: uLo, the union points strictly inside (uLo, uHi), uHi.
-    const nOut = Math.max(0, p1 - p0 + 1) + 2;
+    const inner = Math.max(0, p1 - p0 + 1);
+    const n = inner + 2;
     const cols = [0, 1, 2, 3, 4, ...bandIdx.map((b) => BASE_COLUMNS + b)];
     const nCols = cols.length;
-    const out = Array.from({ length: nCols }, () => new Float64Array(nOut));
-    const uOut = new Float64Array(nOut);
-    const phase = new Uint8Array(nOut);
-    const combineAt = (p: number, q: number): void => {
-      for (let c = 0; c < nCols; c++) {
-        const col = cols[c];
-        let v = 0;
-        for (let j = 0; j < nc; j++) v += w[j] * cell.values[j][col][p];
-        out[c][q] = v;
+    const out: Float64Array[] = new Array(nCols);
+    const w0 = w[0];
+    const w1 = w[1];
+    const w2 = nc > 2 ? w[2] : 0;
+    const w3 = nc > 3 ? w[3] : 0;
+    for (let c = 0; c < nCols; c++) {
+      const col = cols[c];
+      const o = new Float64Array(n);
+      if (col === 1 && !this.grid.hasMassCurrent) {
+        o.fill(Number.NaN);
+        out[c] = o;
+        continue;
       }
-      phase[q] = cell.phase[jMax][p];
-    };
-    const endAt = (u: number, q: number): void => {
-      // Linear between the union points around u (each corner is linear there, so the sum is too).
-      let a = 0;
-      while (a < P - 2 && U[a + 1] < u) a++;
-      const t = U[a + 1] > U[a] ? Math.min(1, Math.max(0, (u - U[a]) / (U[a + 1] - U[a]))) : 0;
-      for (let c = 0; c < nCols; c++) {
-        const col = cols[c];
-        let va = 0;
-        let vb = 0;
-        for (let j = 0; j < nc; j++) {
-          va += w[j] * cell.values[j][col][a];
-          vb += w[j] * cell.values[j][col][a + 1];
-        }
-        out[c][q] = va + t * (vb - va);
+      const a0 = cell.values[0][col];
+      const a1 = cell.values[1][col];
+      // One weighted sum per output value; the loops are split by corner count to stay monomorphic.
+      if (nc === 2) {
+        for (let p = p0, q = 1; p <= p1; p++, q++) o[q] = w0 * a0[p] + w1 * a1[p];
+      } else if (nc === 3) {
+        const a2 = cell.values[2][col];
+        for (let p = p0, q = 1; p <= p1; p++, q++) o[q] = w0 * a0[p] + w1 * a1[p] + w2 * a2[p];
+      } else {
+        const a2 = cell.values[2][col];
+        const a3 = cell.values[3][col];
+        for (let p = p0, q = 1; p <= p1; p++, q++) o[q] = w0 * a0[p] + w1 * a1[p] + w2 * a2[p] + w3 * a3[p];
       }
-      phase[q] = cell.phase[jMax][t < 0.5 ? a : a + 1];
-      uOut[q] = u;
-    };
-    let q = 0;
-    endAt(uLo, q++);
-    for (let p = p0; p <= p1; p++) {
-      combineAt(p, q);
-      uOut[q] = U[p];
-      q++;
+      o[0] = this.combinedAt(cell, col, w, uLo);
+      o[n - 1] = this.combinedAt(cell, col, w, uHi);
+      out[c] = o;
     }
-    // Points where every corner waits (a zero-length segment shared by all) repeat a row with a higher
-    // phase coordinate; they are kept, as at the nodes, so that results stay continuous in u.
-    endAt(uHi, q);
-    const n = q + 1;
+    const uOut = new Float64Array(n);
+    uOut[0] = uLo;
+    if (inner > 0) uOut.set(U.subarray(p0, p1 + 1), 1);
+    uOut[n - 1] = uHi;
+    // Phase labels from the corner with the largest weight (constant over the query, so they stay in order).
+    const phase = new Uint8Array(n);
+    const ph = cell.phase[jMax];
+    if (inner > 0) phase.set(ph.subarray(p0, p1 + 1), 1);
+    phase[0] = ph[Math.min(P - 1, Math.max(0, p0 - 1))];
+    phase[n - 1] = ph[Math.min(P - 1, p1 + 1)];
     const nb = bandIdx.length;
     return {
       logAgeYr,
       feh,
-      massInitial: out[0].subarray(0, n),
-      massCurrent: out[1].subarray(0, n),
-      phase: phase.subarray(0, n),
-      phaseCoord: uOut.subarray(0, n),
-      logL: out[4].subarray(0, n),
-      logTeff: out[2].subarray(0, n),
-      logg: out[3].subarray(0, n),
+      massInitial: out[0],
+      massCurrent: out[1],
+      phase,
+      phaseCoord: uOut,
+      logL: out[4],
+      logTeff: out[2],
+      logg: out[3],
       bands: [...bands],
-      absMag: Array.from({ length: nb }, (_, b) => out[BASE_COLUMNS + b].subarray(0, n)),
+      absMag: Array.from({ length: nb }, (_, b) => out[BASE_COLUMNS + b]),
       provenance: this.provenance,
     };
+  }
+
+  /** The weighted sum of column `col` at phase u: linear between the union points around u. */
+  private combinedAt(cell: Cell, col: number, w: number[], u: number): number {
+    const U = cell.u;
+    const P = U.length;
+    let lo = 0;
+    let hi = P - 1;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (U[mid] <= u) lo = mid;
+      else hi = mid;
+    }
+    const t = U[hi] > U[lo] ? Math.min(1, Math.max(0, (u - U[lo]) / (U[hi] - U[lo]))) : 0;
+    let va = 0;
+    let vb = 0;
+    for (let j = 0; j < w.length; j++) {
+      va += w[j] * cell.values[j][col][lo];
+      vb += w[j] * cell.values[j][col][hi];
+    }
+    return t === 0 ? va : t === 1 ? vb : va + t * (vb - va);
   }
 
   /** The union of the corners' phase coordinates and every corner's columns on it, cached. */
@@ -242,39 +274,44 @@ export class GridSource implements IsochroneSource {
     const phase: Uint8Array[] = [];
     const lo = new Float64Array(isos.length);
     const hi = new Float64Array(isos.length);
+    const ra = new Int32Array(P);
+    const rb = new Int32Array(P);
+    const tt = new Float64Array(P);
     curves.forEach((c, j) => {
-      const vals = Array.from({ length: nCols }, () => new Float64Array(P));
       const ph = new Uint8Array(P);
       const m = c.u.length;
       lo[j] = c.u[0];
       hi[j] = c.u[m - 1];
+      // Where each union point falls on this corner: rows around it and the fraction between them.
       let a = 0;
       for (let p = 0; p < P; p++) {
         const x = u[p];
         while (a < m - 2 && c.u[a + 1] <= x) a++;
-        let ra: number;
-        let rb: number;
-        let t: number;
         if (x <= c.u[0]) {
-          ra = rb = c.src[0];
-          t = 0;
+          ra[p] = rb[p] = c.src[0];
+          tt[p] = 0;
           ph[p] = c.phase[0];
         } else if (x >= c.u[m - 1]) {
-          ra = rb = c.src[m - 1];
-          t = 0;
+          ra[p] = rb[p] = c.src[m - 1];
+          tt[p] = 0;
           ph[p] = c.phase[m - 1];
         } else {
-          ra = c.src[a];
-          rb = c.src[a + 1];
-          t = (x - c.u[a]) / (c.u[a + 1] - c.u[a]);
+          ra[p] = c.src[a];
+          rb[p] = c.src[a + 1];
+          const t = (x - c.u[a]) / (c.u[a + 1] - c.u[a]);
+          tt[p] = t;
           ph[p] = c.phase[t < 1 ? a : a + 1];
         }
-        for (let col = 0; col < nCols; col++) {
-          const arr = this.columns[col];
-          const va = arr[ra];
-          vals[col][p] = t === 0 ? va : va + t * (arr[rb] - va);
-        }
       }
+      const vals = this.columns.map((arr) => {
+        const o = new Float64Array(P);
+        for (let p = 0; p < P; p++) {
+          const va = arr[ra[p]];
+          const t = tt[p];
+          o[p] = t === 0 ? va : va + t * (arr[rb[p]] - va);
+        }
+        return o;
+      });
       values.push(vals);
       phase.push(ph);
     });
@@ -289,23 +326,6 @@ export class GridSource implements IsochroneSource {
     }
     return cell;
   }
-}
-
-function emptyIsochrone(n: number, nb: number, logAgeYr: number, feh: number, bands: readonly BandId[], provenance: ModelProvenance): Isochrone {
-  return {
-    logAgeYr,
-    feh,
-    massInitial: new Float64Array(n),
-    massCurrent: new Float64Array(n),
-    phase: new Uint8Array(n),
-    phaseCoord: new Float64Array(n),
-    logL: new Float64Array(n),
-    logTeff: new Float64Array(n),
-    logg: new Float64Array(n),
-    bands: [...bands],
-    absMag: Array.from({ length: nb }, () => new Float64Array(n)),
-    provenance,
-  };
 }
 
 /**
