@@ -35,9 +35,12 @@ export interface EdgeSide {
   slopeRatioRange?: readonly [number, number];
   /**
    * A published relation that covers the region beyond the edge: the extension hands over to it
-   * smoothly (quintic weight, so value and slope stay continuous) within `widthDex` of the edge.
+   * smoothly (quintic weight, so value and slope stay continuous) over `widthDex`, starting at the edge or,
+   * if given and farther out, at `fromLogTeff` (hot side only).
    */
-  blendInto?: { value: (logTeff: number) => number; widthDex: number };
+  blendInto?: { value: (logTeff: number) => number; widthDex: number; fromLogTeff?: number };
+  /** Width over which the slope converges from the edge's to the far-field one (default 0.05 dex). */
+  saturationDex?: number;
 }
 
 export interface EdgeBehaviour {
@@ -109,7 +112,7 @@ function prepareSide(rel: ColourTeffRelation, logg: number, feh: number, e: Teff
     farRatio = (colourEdge - inner) / (side.shape.value(logTeffEdge) - side.shape.value(logTeffInner));
   }
   return {
-    extension: prepareExtension(logTeffEdge, colourEdge, slopeEdge, side.shape, side.mode, side.slopeRatioRange, farRatio),
+    extension: prepareExtension(logTeffEdge, colourEdge, slopeEdge, side.shape, side.mode, side.slopeRatioRange, farRatio, side.saturationDex),
     blendInto: side.blendInto,
   };
 }
@@ -128,9 +131,14 @@ export function prepareColour(rel: ColourTeffRelation, logg: number, feh: number
 
 function extend(p: PreparedSide, logTeff: number): number {
   const q = evaluateExtension(p.extension, logTeff);
-  if (!p.blendInto) return q;
-  const w = smoothstep(Math.abs(logTeff - p.extension.logTeffEdge) / p.blendInto.widthDex);
-  return w === 0 ? q : (1 - w) * q + w * p.blendInto.value(logTeff);
+  const b = p.blendInto;
+  if (!b) return q;
+  const edge = p.extension.logTeffEdge;
+  const delay = b.fromLogTeff !== undefined && b.fromLogTeff > edge ? b.fromLogTeff - edge : 0;
+  const beyond = Math.abs(logTeff - edge) - delay;
+  if (beyond <= 0) return q;
+  const w = smoothstep(beyond / b.widthDex);
+  return (1 - w) * q + w * b.value(logTeff);
 }
 
 /**

@@ -32,12 +32,14 @@ const PLANCK_VI = planckColourShape(L.V, L.I);
 const PLANCK_BCV = planckBcShape(L.V);
 
 /**
- * B-V: hotter than the relation's edge it hands over to Flower's B-V within 0.05 dex (Flower's calibration
- * covers A and B stars); cooler, it follows Flower's shape with an offset (Flower's cool calibrators are
- * giants, so the absolute values are not taken over for dwarfs).
+ * B-V: hotter than the relation's edge it follows Flower's shape with the offset it has at the edge (which
+ * carries the relation's metallicity dependence), and hands over to Flower's own B-V (all luminosity
+ * classes, to O stars) over 0.06 dex from 7000 K or from the edge if that is hotter: metallicity matters
+ * little to the colours of A and B stars. Cooler, it follows Flower's shape with an offset (Flower's cool
+ * calibrators are giants, so his absolute values are not taken over for dwarfs).
  */
 const BV_EDGES: EdgeBehaviour = {
-  hot: { shape: FLOWER_BV_SHAPE, mode: 'offset', blendInto: { value: flowerBv, widthDex: 0.05 } },
+  hot: { shape: FLOWER_BV_SHAPE, mode: 'offset', blendInto: { value: flowerBv, widthDex: 0.06, fromLogTeff: Math.log10(7000) } },
   cool: { shape: FLOWER_BV_SHAPE, mode: 'offset' },
 };
 const VR_EDGES = colourEdges(PLANCK_VR);

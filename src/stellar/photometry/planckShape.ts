@@ -114,7 +114,7 @@ export const SLOPE_RATIO_RANGE = [0.25, 4] as const;
  */
 export type ExtensionMode = 'scaled' | 'offset' | 'secant';
 
-/** Width in log Teff over which the slope converges from the edge's to the far-field one. */
+/** Default width in log Teff over which the slope converges from the edge's to the far-field one. */
 export const OFFSET_SATURATION_DEX = 0.05;
 /** Span inside the range over which the `secant` mode measures the slope ratio. */
 export const SECANT_DEX = 0.1;
@@ -133,8 +133,9 @@ export interface Extension {
   /** Slope ratio at the edge and far from it (equal in the `scaled` mode). */
   near: number;
   far: number;
-  /** (near - far) S'(T_e) OFFSET_SATURATION_DEX, the amplitude of the saturating correction. */
+  /** (near - far) S'(T_e) w, the amplitude of the saturating correction over width w. */
   correction: number;
+  saturationDex: number;
 }
 
 /**
@@ -150,18 +151,28 @@ export function prepareExtension(
   mode: ExtensionMode = 'scaled',
   slopeRatioRange: readonly [number, number] = SLOPE_RATIO_RANGE,
   farRatio = 1,
+  saturationDex = OFFSET_SATURATION_DEX,
 ): Extension {
   const shapeSlope = shape.slope(logTeffEdge);
   const near = clampRatio(slopeEdge / shapeSlope, slopeRatioRange);
   const far = mode === 'scaled' ? near : mode === 'offset' ? 1 : clampRatio(farRatio, slopeRatioRange);
-  return { logTeffEdge, qEdge, shape, shapeEdge: shape.value(logTeffEdge), near, far, correction: (near - far) * shapeSlope * OFFSET_SATURATION_DEX };
+  return {
+    logTeffEdge,
+    qEdge,
+    shape,
+    shapeEdge: shape.value(logTeffEdge),
+    near,
+    far,
+    correction: (near - far) * shapeSlope * saturationDex,
+    saturationDex,
+  };
 }
 
 /** Q at logTeff on an extension. Q and dQ/dlogTeff are continuous at the edge in every mode. */
 export function evaluateExtension(x: Extension, logTeff: number): number {
   const q = x.qEdge + x.far * (x.shape.value(logTeff) - x.shapeEdge);
   // d tanh(u)/du = 1 at u = 0: the correction supplies the edge's own slope and then saturates.
-  return x.correction === 0 ? q : q + x.correction * Math.tanh((logTeff - x.logTeffEdge) / OFFSET_SATURATION_DEX);
+  return x.correction === 0 ? q : q + x.correction * Math.tanh((logTeff - x.logTeffEdge) / x.saturationDex);
 }
 
 /** One-off form of prepareExtension + evaluateExtension. */
