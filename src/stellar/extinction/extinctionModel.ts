@@ -10,12 +10,12 @@
  * R_b is evaluated at E(B-V) -> 0 and applied linearly; the curvature of A_G in E(B-V) (the star reddens
  * as it is extinguished) is neglected, which matters only at E(B-V) of order 1.
  */
-import { BANDS, type BandId } from '../../core/bands.js';
+import { BAND_IDS, BANDS, type BandId } from '../../core/bands.js';
 import { ModelError } from '../../core/errors.js';
 import type { ExtinctionModel } from '../types.js';
 import { bcTable, gridPosition, interpolate, newGridPosition } from '../photometry/bcTable.js';
 import { odonnell94 } from './cardelli1989.js';
-import { GAIA_COEFFICIENT_COLOUR_RANGE, gaiaExtinctionRatioCod, type GaiaBand } from './gaiaCoefficients.js';
+import { GAIA_COEFFICIENT_COLOUR_RANGE, gaiaExtinctionRatioCod, heldColour, ratioBP, ratioG, ratioRP, type GaiaBand } from './gaiaCoefficients.js';
 import { checkRv, EXTINCTION_LAWS, extinctionCurve, LAW_CITATIONS, type ExtinctionLaw } from './laws.js';
 
 export interface ExtinctionOptions {
@@ -33,6 +33,8 @@ export interface BuiltinExtinctionModel extends ExtinctionModel {
   /** R_b of a Gaia band for a star of intrinsic colour (BP-RP)_0. */
   gaiaRatio(band: GaiaBand, bpRp0: number): number;
 }
+
+const BAND_COUNT = BAND_IDS.length;
 
 function isGaia(band: BandId): band is GaiaBand {
   return band === 'G' || band === 'BP' || band === 'RP';
@@ -72,30 +74,43 @@ export function extinctionModel(options: ExtinctionOptions = {}): BuiltinExtinct
     (law === 'odonnell94' && rv === 3.1 ? '.' : `, scaled to ${LAW_CITATIONS[law]} at R_V = ${rv} by the ratio of the laws at each passband's pivot wavelength (approximate).`);
 
   const pos = newGridPosition();
-  let rpTable: Float32Array | undefined;
-  let bpTable: Float32Array | undefined;
+  // Per call: what each requested band needs (0 fixed ratio, 1 G, 2 BP, 3 RP) and its scale or ratio.
+  const kind = new Uint8Array(BAND_COUNT);
+  const value = new Float64Array(BAND_COUNT);
+  const scaleG = gaiaScale.get('G') as number;
+  const scaleBP = gaiaScale.get('BP') as number;
+  const scaleRP = gaiaScale.get('RP') as number;
 
   function ratios(bands: readonly BandId[], logTeff: Float64Array, logg: Float64Array, feh: number, out: Float64Array[], n: number): void {
-    if (out.length < bands.length) throw new ModelError(`ratios needs one output array per band: got ${out.length} for ${bands.length} bands`);
+    const nb = bands.length;
+    if (out.length < nb) throw new ModelError(`ratios needs one output array per band: got ${out.length} for ${nb} bands`);
+    if (nb > BAND_COUNT) throw new ModelError(`ratios was given ${nb} bands; there are only ${BAND_COUNT}`);
     let anyGaia = false;
-    for (let b = 0; b < bands.length; b++) {
-      const r = fixed.get(bands[b]);
-      if (r === undefined) {
-        if (!isGaia(bands[b])) throw new ModelError(`no extinction coefficient for band ${bands[b]}`);
+    for (let b = 0; b < nb; b++) {
+      const band = bands[b];
+      const r = fixed.get(band);
+      if (r !== undefined) {
+        kind[b] = 0;
+        out[b].fill(r, 0, n);
+      } else if (isGaia(band)) {
+        kind[b] = band === 'G' ? 1 : band === 'BP' ? 2 : 3;
+        value[b] = band === 'G' ? scaleG : band === 'BP' ? scaleBP : scaleRP;
         anyGaia = true;
       } else {
-        out[b].fill(r, 0, n);
+        throw new ModelError(`no extinction coefficient for band ${band}`);
       }
     }
     if (!anyGaia) return;
-    rpTable ??= bcTable('RP');
-    bpTable ??= bcTable('BP');
+    const rpTable = bcTable('RP', feh);
+    const bpTable = bcTable('BP', feh);
     for (let k = 0; k < n; k++) {
       // (BP-RP)_0 = M_BP - M_RP = BC_RP - BC_BP.
       const bpRp0 = gridPosition(logTeff[k], logg[k], feh, pos) ? interpolate(rpTable, pos) - interpolate(bpTable, pos) : NaN;
-      for (let b = 0; b < bands.length; b++) {
-        const band = bands[b];
-        if (isGaia(band)) out[b][k] = gaiaRatio(band, bpRp0);
+      const x = heldColour(bpRp0);
+      for (let b = 0; b < nb; b++) {
+        const c = kind[b];
+        if (c === 0) continue;
+        out[b][k] = value[b] * (c === 1 ? ratioG(x) : c === 2 ? ratioBP(x) : ratioRP(x));
       }
     }
   }

@@ -24,15 +24,24 @@ const HOLD_WIDTH = 0.05;
 
 export type GaiaBand = 'G' | 'BP' | 'RP';
 
+/** The colour at which the polynomials are evaluated: bpRp0 held within the range (C1, NaN stays NaN). */
+export function heldColour(bpRp0: number): number {
+  return softClamp(bpRp0, GAIA_COEFFICIENT_COLOUR_RANGE[0], GAIA_COEFFICIENT_COLOUR_RANGE[1], HOLD_WIDTH);
+}
+
+/** The published polynomials at an already-held colour x. */
+export function ratioG(x: number): number {
+  return 3.071 + x * (-0.511 + x * 0.058);
+}
+export function ratioBP(x: number): number {
+  return 3.526 + x * (-0.168 + x * (-0.17 + x * 0.06));
+}
+export function ratioRP(x: number): number {
+  return 2.062 - 0.072 * x;
+}
+
 /** A_X/E(B-V) for CCM89 + O'Donnell 1994, R_V = 3.1, at intrinsic colour bpRp0. */
 export function gaiaExtinctionRatioCod(band: GaiaBand, bpRp0: number): number {
-  const x = softClamp(bpRp0, GAIA_COEFFICIENT_COLOUR_RANGE[0], GAIA_COEFFICIENT_COLOUR_RANGE[1], HOLD_WIDTH);
-  switch (band) {
-    case 'G':
-      return 3.071 + x * (-0.511 + x * 0.058);
-    case 'BP':
-      return 3.526 + x * (-0.168 + x * (-0.17 + x * 0.06));
-    case 'RP':
-      return 2.062 - 0.072 * x;
-  }
+  const x = heldColour(bpRp0);
+  return band === 'G' ? ratioG(x) : band === 'BP' ? ratioBP(x) : ratioRP(x);
 }

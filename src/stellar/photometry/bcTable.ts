@@ -6,8 +6,8 @@
  * interpolation of a continuous table is continuous in every input, so nothing jumps; the tests bound its
  * difference from the direct evaluation. The log g axis is dense (0.05 dex) across 2.9-3.7, where dwarf and
  * giant relations are blended, and sparse elsewhere, where magnitudes are linear in log g (Casagrande et
- * al. 2021) or independent of it. Tables are built lazily, per photometric system, the first time one of
- * its bands is asked for, and kept for the life of the process.
+ * al. 2021) or independent of it. Tables are filled lazily, one [Fe/H] slab of one photometric system at a
+ * time, when a call first needs it, and kept for the life of the process.
  *
  * Inputs beyond the grid are held at its edge: log Teff 3.35-4.70 (2240-50 000 K), log g -1 to 5.5,
  * [Fe/H] -3.0 to +0.6. The magnitude then still varies continuously with log L.
@@ -52,7 +52,21 @@ const NF = BC_GRID.feh.n;
 /** Number of nodes per table; index = (iFeh * nLogg + iLogg) * nLogTeff + iLogTeff. */
 export const BC_TABLE_SIZE = NT * NG * NF;
 
-const tables = new Map<PhotometryBand, Float32Array>();
+type System = 'jc' | 'gaia';
+
+interface SystemTables {
+  bands: readonly PhotometryBand[];
+  tables: Float32Array[];
+  /** built[k]: the [Fe/H] slab k (all log g and log Teff nodes at feh node k) has been filled. */
+  built: Uint8Array;
+  buildSlab(k: number, tables: Float32Array[]): void;
+}
+
+const systems = new Map<System, SystemTables>();
+
+function systemOf(band: PhotometryBand): System {
+  return (JOHNSON_COUSINS_BANDS as readonly string[]).includes(band) ? 'jc' : 'gaia';
+}
 
 function logTeffAt(i: number): number {
   return BC_GRID.logTeff.min + i * BC_GRID.logTeff.step;
@@ -62,60 +76,85 @@ function fehAt(k: number): number {
   return BC_GRID.feh.min + k * BC_GRID.feh.step;
 }
 
-/** Johnson-Cousins: the relations do not depend on log g except through the dwarf/giant weight. */
-function buildJohnsonCousins(): void {
-  const out = JOHNSON_COUSINS_BANDS.map(() => new Float32Array(BC_TABLE_SIZE));
+/** Johnson-Cousins slab: the relations do not depend on log g except through the dwarf/giant weight. */
+function buildJohnsonCousinsSlab(k: number, out: Float32Array[]): void {
   const d: JohnsonCousinsPoint = { bcV: 0, bv: NaN, vr: NaN, vi: NaN };
   const g: JohnsonCousinsPoint = { bcV: 0, bv: NaN, vr: NaN, vi: NaN };
   const m: JohnsonCousinsPoint = { bcV: 0, bv: 0, vr: 0, vi: 0 };
   const bc = new Float64Array(4);
   const weights = Float64Array.from(BC_GRID.logg, dwarfWeight);
-  for (let k = 0; k < NF; k++) {
-    const dwarf = prepareJohnsonCousins('dwarf', fehAt(k));
-    const giant = prepareJohnsonCousins('giant', fehAt(k));
-    for (let i = 0; i < NT; i++) {
-      evaluateJohnsonCousins(dwarf, logTeffAt(i), d);
-      evaluateJohnsonCousins(giant, logTeffAt(i), g);
-      for (let j = 0; j < NG; j++) {
-        mixJohnsonCousins(d, g, weights[j], m);
-        johnsonCousinsBcsFrom(m, bc);
-        const idx = (k * NG + j) * NT + i;
-        for (let b = 0; b < 4; b++) out[b][idx] = bc[b];
-      }
+  const dwarf = prepareJohnsonCousins('dwarf', fehAt(k));
+  const giant = prepareJohnsonCousins('giant', fehAt(k));
+  for (let i = 0; i < NT; i++) {
+    evaluateJohnsonCousins(dwarf, logTeffAt(i), d);
+    evaluateJohnsonCousins(giant, logTeffAt(i), g);
+    for (let j = 0; j < NG; j++) {
+      mixJohnsonCousins(d, g, weights[j], m);
+      johnsonCousinsBcsFrom(m, bc);
+      const idx = (k * NG + j) * NT + i;
+      for (let b = 0; b < 4; b++) out[b][idx] = bc[b];
     }
   }
-  JOHNSON_COUSINS_BANDS.forEach((b, i) => tables.set(b, out[i]));
 }
 
-function buildGaiaTwoMass(): void {
-  const out = GAIA_2MASS_BANDS.map(() => new Float32Array(BC_TABLE_SIZE));
-  const bcGOfT = Float64Array.from({ length: NT }, (_, i) => bcG(logTeffAt(i)));
+let bcGOfT: Float64Array | undefined;
+
+function buildGaiaTwoMassSlab(k: number, out: Float32Array[]): void {
+  bcGOfT ??= Float64Array.from({ length: NT }, (_, i) => bcG(logTeffAt(i)));
   const p: GaiaTwoMassPoint = { bcG: 0, gBp: NaN, bpRp: NaN, gJ: NaN, gH: NaN, gKs: NaN };
   const bc = new Float64Array(6);
-  for (let k = 0; k < NF; k++) {
-    for (let j = 0; j < NG; j++) {
-      const prepared = prepareGaiaTwoMass(BC_GRID.logg[j], fehAt(k));
-      const row = (k * NG + j) * NT;
-      for (let i = 0; i < NT; i++) {
-        p.bcG = bcGOfT[i];
-        evaluateGaiaTwoMassColours(prepared, logTeffAt(i), p);
-        gaiaTwoMassBcsFrom(p, bc);
-        for (let b = 0; b < 6; b++) out[b][row + i] = bc[b];
-      }
+  for (let j = 0; j < NG; j++) {
+    const prepared = prepareGaiaTwoMass(BC_GRID.logg[j], fehAt(k));
+    const row = (k * NG + j) * NT;
+    p.gBp = p.bpRp = p.gJ = p.gH = p.gKs = NaN;
+    for (let i = 0; i < NT; i++) {
+      p.bcG = bcGOfT[i];
+      evaluateGaiaTwoMassColours(prepared, logTeffAt(i), p);
+      gaiaTwoMassBcsFrom(p, bc);
+      for (let b = 0; b < 6; b++) out[b][row + i] = bc[b];
     }
   }
-  GAIA_2MASS_BANDS.forEach((b, i) => tables.set(b, out[i]));
 }
 
-/** The table of BC for one band (built on first use). */
-export function bcTable(band: PhotometryBand): Float32Array {
-  let t = tables.get(band);
+function system(s: System): SystemTables {
+  let t = systems.get(s);
   if (!t) {
-    if ((JOHNSON_COUSINS_BANDS as readonly string[]).includes(band)) buildJohnsonCousins();
-    else buildGaiaTwoMass();
-    t = tables.get(band) as Float32Array;
+    const bands = s === 'jc' ? JOHNSON_COUSINS_BANDS : GAIA_2MASS_BANDS;
+    t = {
+      bands,
+      tables: bands.map(() => new Float32Array(BC_TABLE_SIZE)),
+      built: new Uint8Array(NF),
+      buildSlab: s === 'jc' ? buildJohnsonCousinsSlab : buildGaiaTwoMassSlab,
+    };
+    systems.set(s, t);
   }
   return t;
+}
+
+function ensureSlab(t: SystemTables, k: number): void {
+  if (t.built[k]) return;
+  t.buildSlab(k, t.tables);
+  t.built[k] = 1;
+}
+
+/**
+ * The table of one band, ready for interpolation at [Fe/H] = feh: the two [Fe/H] slabs that bracket it are
+ * built if they were not yet (each slab costs milliseconds: a fit touches only the metallicities it
+ * visits). Without feh, the whole table is built (tests, tools).
+ */
+export function bcTable(band: PhotometryBand, feh?: number): Float32Array {
+  const t = system(systemOf(band));
+  if (feh === undefined) {
+    for (let k = 0; k < NF; k++) ensureSlab(t, k);
+  } else if (feh === feh) {
+    let u = (feh - BC_GRID.feh.min) / BC_GRID.feh.step;
+    if (u < 0) u = 0;
+    else if (u > NF - 1) u = NF - 1;
+    const k = Math.min(Math.floor(u), NF - 2);
+    ensureSlab(t, k);
+    ensureSlab(t, k + 1);
+  }
+  return t.tables[t.bands.indexOf(band)];
 }
 
 /** Cell of the log g axis for each 0.01 dex step from its first node: a constant-time lookup. */

@@ -20,7 +20,7 @@ const pos = newGridPosition();
 /** Tables of the bands of the current call; reused across calls (no allocation per call). */
 const callTables: Float32Array[] = [];
 
-function resolveTables(bands: readonly BandId[]): void {
+function resolveTables(bands: readonly BandId[], feh: number): void {
   callTables.length = bands.length;
   for (let b = 0; b < bands.length; b++) {
     const band = bands[b];
@@ -31,7 +31,7 @@ function resolveTables(bands: readonly BandId[]): void {
         hint: band === 'U' ? 'U is not modelled by the built-in calibration; fit without it, or bring an isochrone grid that has U' : undefined,
       });
     }
-    callTables[b] = bcTable(band);
+    callTables[b] = bcTable(band, feh);
   }
 }
 
@@ -44,7 +44,7 @@ function absoluteMagnitudes(
   out: Float64Array[],
   n: number,
 ): void {
-  resolveTables(bands);
+  resolveTables(bands, feh);
   const nb = bands.length;
   if (out.length < nb) throw new ModelError(`absoluteMagnitudes needs one output array per band: got ${out.length} for ${nb} bands`);
   for (let k = 0; k < n; k++) {
@@ -63,7 +63,10 @@ const MODEL: PhotometryModel = {
   absoluteMagnitudes,
 };
 
-/** The built-in photometric calibration. Tables are built on first use of each system (B V R I; G BP RP J H Ks). */
+/**
+ * The built-in photometric calibration. Its table is filled on demand, per photometric system (B V R I; G BP
+ * RP J H Ks) and per 0.1 dex of [Fe/H]: the first call at a new metallicity costs a few milliseconds.
+ */
 export function builtinPhotometry(): PhotometryModel {
   return MODEL;
 }
@@ -73,5 +76,5 @@ export function tabulatedBc(band: BandId, logTeff: number, logg: number, feh: nu
   if (!isPhotometryBand(band)) throw new ModelError(`the built-in photometry has no calibration for band ${band}`);
   const p = newGridPosition();
   if (!gridPosition(logTeff, logg, feh, p)) return NaN;
-  return interpolate(bcTable(band), p);
+  return interpolate(bcTable(band, feh), p);
 }
