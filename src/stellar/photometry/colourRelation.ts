@@ -6,7 +6,8 @@
  * valid colour interval f is monotone (the tests check this over the whole domain), and the root is found
  * by Newton's method kept inside a bracket (bisection when a Newton step would leave it), to 1e-11 mag.
  * Outside the interval's temperatures the colour continues along a shape from its edge (planckShape.ts), so
- * the colour is continuous, with a continuous first derivative, in every input.
+ * the colour is continuous in every input (and so is its first derivative, except where a slope ratio had
+ * to be bounded).
  *
  * Everything that depends only on (log g, [Fe/H]) (the edges, the slopes there, the far-field slope ratio)
  * is computed once by `prepareColour`; `preparedColour` then costs one root-find or one shape evaluation

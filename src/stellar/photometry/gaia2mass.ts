@@ -9,15 +9,16 @@
  * Beyond the published ranges: BC_G hotter than 8000 K follows Flower's BC_V (G - V is nearly constant,
  * about 0.0-0.02 mag, for B and A dwarfs in the Pecaut & Mamajek sequence) with an offset and the slope
  * matched at the edge; cooler than 3300 K it follows a black body's BC_G with the slope matched. Colours
- * beyond their colour ranges follow black-body colours with the slope matched (planckShape.ts).
+ * beyond their ranges follow Flower's B-V scaled when hotter and a black body's colour when cooler
+ * (edges.ts).
  */
-import { pow10 } from './smooth.js';
 import { ANDRAE2018_TEFF_RANGE, andraeBcG, andraeBcGSlope } from './andrae2018.js';
 import { casagrande2021 } from './casagrande2021.js';
 import { prepareColour, preparedColour, type PreparedColour } from './colourRelation.js';
 import { colourEdges } from './edges.js';
 import { FLOWER_BCV_SHAPE } from './flower1996.js';
 import { EFFECTIVE_WAVELENGTH_UM as L, extendBeyondEdge, planckBcShape, planckColourShape } from './planckShape.js';
+import { pow10 } from './smooth.js';
 
 const scratch = new Float64Array(2);
 

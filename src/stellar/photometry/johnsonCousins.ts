@@ -6,18 +6,20 @@
  *       from Casagrande et al. 2010 (Table 4), giants from Ramirez & Melendez 2005 (Tables 3 and 5).
  *
  * Dwarf and giant relations are blended smoothly across log g 3.0-3.6 (weight of the dwarf relation rising
- * from 0 to 1). Each relation holds only on its published colour range; beyond it a colour continues along
- * a shape with its slope matched (planckShape.ts): Flower's B-V-Teff relation (all luminosity classes,
- * O to M) for B-V, a black body's colour for V-Rc and V-Ic. BC_V is Flower's over 3160-45 000 K for giants;
- * for dwarfs below 4250 K, where Flower's giant-dominated calibrators make it too negative, it continues
- * from 4250 K along a black body's BC_V with the slope matched.
+ * from 0 to 1). Each relation holds only on its published colour range (for Ramirez & Melendez, the range
+ * of the star's [Fe/H] bin); beyond it a colour continues along a shape (planckShape.ts, edges.ts): B-V
+ * along Flower's B-V-Teff relation (all luminosity classes, O to M), handed over to Flower's own values
+ * from 7000 K; V-Rc and V-Ic along Flower's B-V scaled when hotter, a black body's colour when cooler.
+ * BC_V is Flower's over 3160-45 000 K for giants; for dwarfs below 4250 K, where Flower's giant-dominated
+ * calibrators make it too negative, it continues from 4250 K along a black body's BC_V with the slope
+ * matched.
  *
  * Output is bolometric corrections BC_b = M_bol - M_b, so M_b = M_bol,sun - 2.5 log L - BC_b.
  */
 import { casagrande2010 } from './casagrande2010.js';
-import { colourEdges } from './edges.js';
 import { prepareColour, preparedColour, type EdgeBehaviour, type PreparedColour } from './colourRelation.js';
-import { FLOWER_BCV_DWARF_COOL_EDGE, FLOWER_BCV_RANGE, FLOWER_BV_SHAPE, flowerBcV, flowerBv } from './flower1996.js';
+import { colourEdges } from './edges.js';
+import { FLOWER_BCV_DWARF_COOL_EDGE, FLOWER_BCV_RANGE, FLOWER_BV_SHAPE, flowerBcV } from './flower1996.js';
 import { EFFECTIVE_WAVELENGTH_UM as L, extendBeyondEdge, planckBcShape, planckColourShape } from './planckShape.js';
 import { ramirezMelendez2005Giants } from './ramirezMelendez2005.js';
 import { smoothWeight } from './smooth.js';
@@ -39,7 +41,7 @@ const PLANCK_BCV = planckBcShape(L.V);
  * calibrators are giants, so his absolute values are not taken over for dwarfs).
  */
 const BV_EDGES: EdgeBehaviour = {
-  hot: { shape: FLOWER_BV_SHAPE, mode: 'offset', blendInto: { value: flowerBv, widthDex: 0.06, fromLogTeff: Math.log10(7000) } },
+  hot: { shape: FLOWER_BV_SHAPE, mode: 'offset', blendInto: { value: FLOWER_BV_SHAPE.value, widthDex: 0.06, fromLogTeff: Math.log10(7000) } },
   cool: { shape: FLOWER_BV_SHAPE, mode: 'offset' },
 };
 const VR_EDGES = colourEdges(PLANCK_VR);

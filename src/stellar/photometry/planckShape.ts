@@ -3,28 +3,26 @@
  *
  * Empirical colour-temperature relations cover roughly 4000-8000 K, yet isochrones reach hot blue
  * horizontal-branch stars (10 000-30 000 K in metal-poor clusters) and M dwarfs and giants below 3500 K.
- * Beyond an edge at log Teff_e, a quantity Q (a colour or a bolometric correction) continues as
+ * Beyond an edge at log Teff_e, a quantity Q (a colour or a bolometric correction) continues along a shape
+ * S, a function of log Teff with a physical reason to run parallel to Q:
  *
- *     Q(T) = Q_e + s [S(T) - S(T_e)],   s = Q'(T_e) / S'(T_e),
+ *     Q(T) = Q_e + s_far [S(T) - S(T_e)] + (s_edge - s_far) S'(T_e) w tanh((log T - log T_e) / w),
  *
- * where S is a physically motivated shape and s matches the slope, so Q and dQ/dlogT are continuous at the
- * edge. The default shape is that of a black body seen through the bands' effective wavelengths: colours
- * then flatten towards the Rayleigh-Jeans limit on the hot side and redden ever faster on the cool side,
- * as real stars do, and never turn over. Where a published relation covers the region (Flower 1996 for
- * B-V and BC_V), its shape is used instead. s is kept within bounds (by default [1/4, 4]; on the cool
- * side of colours [1/2, 5/2], the range real M stars show against a black body): near the end of its range a
- * fitted polynomial's slope can be implausible (about to turn over, or steepening), and the extension then
- * keeps a bounded multiple of the shape's slope instead of amplifying it. Q itself stays continuous either
- * way; only its slope may then change at the edge.
+ * where s_edge = Q'(T_e) / S'(T_e) matches the relation's slope at the edge (so Q and dQ/dlogT are
+ * continuous there) and s_far is the slope ratio far from it (the modes below say which). Shapes used: a
+ * black body's colour or bolometric correction at the bands' effective wavelengths (colours then flatten
+ * towards the Rayleigh-Jeans limit when hot and redden ever faster when cool, and never turn over), and,
+ * where a published relation covers the region, its shape (Flower 1996 B-V and BC_V, which reach O stars).
+ * Slope ratios are kept within bounds (default [1/4, 4]; cool side of colours [1/2, 5/2], the range M
+ * stars show against a black body), so an implausible edge slope is never amplified.
  *
- * This is an approximation: a black body has no Balmer jump and no molecular bands, so extended colours of
- * A/B stars and of M stars are good to about 0.1-0.3 mag (the dwarf-sequence checks in the tests measure
- * it). Provenance strings say so.
+ * This is an approximation: a black body has no Balmer jump and no molecular bands. The dwarf-sequence
+ * tests measure the result, and provenance.ts states it.
  */
 
-/** Second radiation constant hc/k in micrometre kelvin (CODATA 2018, exact in SI). */
 import { pow10 } from './smooth.js';
 
+/** Second radiation constant hc/k in micrometre kelvin (CODATA 2018, exact in SI). */
 const C2_UM_K = 14387.7688;
 const LN10 = Math.LN10;
 
