@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
+import { samplerSection } from './sections/sampler.js';
 
 /**
  * The whole config: one key per section. To add a section (model, priors, sampler, ...), write
@@ -13,6 +14,7 @@ export const configSchema = z.strictObject({
   catalogue: catalogueSection,
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
+  sampler: samplerSection.prefault({}),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;
