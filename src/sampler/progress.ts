@@ -29,7 +29,7 @@ class Tally {
 
   add(states: readonly EnsembleState[], nowMs: number): void {
     if (this.firstStep === undefined) {
-      this.firstStep = states[0].step - 1;
+      this.firstStep = states[0].step;
       this.firstMs = nowMs;
     }
     for (const s of states) {
