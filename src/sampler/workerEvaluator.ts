@@ -15,7 +15,12 @@ import type { LogDensitySpec } from './logDensitySpec.js';
 export interface WorkerEvaluatorOptions {
   /** Worker threads; default: the machine's available parallelism. */
   workers?: number;
-  /** Chunks each batch is cut into, per worker; default 1. More chunks balance uneven costs better. */
+  /**
+   * Tasks per worker to aim for across the batches in flight; default 1. A batch is cut into
+   * ceil(workers x chunksPerWorker / batches in flight) chunks: a lone batch is split across the
+   * workers, while K ensembles submitting together send one task each, which keeps every worker busy with
+   * fewer dispatches. More chunks balance uneven costs better. Chunking never changes the results.
+   */
   chunksPerWorker?: number;
 }
 
@@ -43,13 +48,15 @@ export async function workerEvaluator(spec: LogDensitySpec, options: WorkerEvalu
   const { ndim, blobNames } = description;
   const nBlobs = blobNames.length;
   let closed = false;
+  let inFlight = 0;
   return {
     ndim,
     blobNames,
     workers,
     async evaluate(positions, n, logProbOut, blobsOut) {
       if (closed) throw new Error('the worker evaluator is closed');
-      const nChunks = Math.min(n, workers * chunksPerWorker);
+      inFlight++;
+      const nChunks = Math.max(1, Math.min(n, Math.ceil((workers * chunksPerWorker) / inFlight)));
       const tasks: Promise<void>[] = [];
       for (let c = 0; c < nChunks; c++) {
         const start = Math.floor((c * n) / nChunks);
@@ -67,6 +74,8 @@ export async function workerEvaluator(spec: LogDensitySpec, options: WorkerEvalu
         await Promise.all(tasks);
       } catch (err) {
         throw asSamplingError(err, 'the log-density threw in a worker');
+      } finally {
+        inFlight--;
       }
     },
     async close() {

@@ -189,7 +189,7 @@ describe('progress', () => {
     const lines = out.text.trim().split('\n');
     expect(lines[0]).toBe('step 1/200 (1%)  acceptance 0.500  tau -  best log-prob -0.0100000  ETA -');
     expect(lines).toHaveLength(11);
-    expect(lines[9]).toMatch(/^step 91\/200 \(46%\)  acceptance 0\.\d+  tau 12\.3  best log-prob -0\.0100000  ETA 1m49s$/);
+    expect(lines[9]).toMatch(/^step 91\/200 \(46%\) {2}acceptance 0\.\d+ {2}tau 12\.3 {2}best log-prob -0\.0100000 {2}ETA 1m49s$/);
     expect(lines[10]).toMatch(/done \(steps\)$/);
   });
 
