@@ -9,6 +9,7 @@ export { MoveMixture, type MoveMixtureState } from './moves/moveMixture.js';
 export { EnsembleSampler, type EnsembleSamplerOptions, type EnsembleSnapshot, type EnsembleStart, type SampleOptions } from './ensembleSampler.js';
 export { inThreadEvaluator, type Evaluator } from './evaluator.js';
 export { workerEvaluator, type WorkerEvaluatorOptions } from './workerEvaluator.js';
+export { createEvaluator } from './createEvaluator.js';
 export { loadLogDensity, type LogDensityFactory, type LogDensitySpec } from './logDensitySpec.js';
 export { initializeEnsemble, type InitMethod, type InitOptions, type PriorSampler, type RandomSource, type OptimumReport } from './initialize.js';
 export { checkNotDegenerate, checkWalkerCount } from './checkEnsemble.js';

@@ -66,6 +66,8 @@ export interface RunOptions {
   handleSignals?: boolean;
   /** Shown after an interruption: how to resume (e.g. the command line). */
   resumeHint?: string;
+  /** Where to say that a signal was received and the run is stopping (default: nowhere). */
+  notify?: (line: string) => void;
   /** The checkpoint the samplers were rebuilt from, when resuming. */
   resumedFrom?: Checkpoint;
 }
@@ -74,6 +76,8 @@ export async function runEnsembles(options: RunOptions): Promise<RunResult> {
   const { samplers, stop } = options;
   const thin = options.thin ?? 1;
   if (samplers.length === 0) throw new RangeError('no ensembles to run');
+  const cap = stop.kind === 'auto' ? stop.maxSteps : stop.steps;
+  if (!Number.isInteger(cap) || cap < 0) throw new RangeError(`the number of steps must be a non-negative integer, got ${cap}`);
   if (!Number.isInteger(thin) || thin < 1) throw new RangeError(`thin must be a positive integer, got ${thin}`);
   const step0 = samplers[0].step;
   if (samplers.some((s) => s.step !== step0)) throw new RangeError('all ensembles must start at the same step');
@@ -102,7 +106,15 @@ export async function runEnsembles(options: RunOptions): Promise<RunResult> {
 
   let signalled: NodeJS.Signals | undefined;
   const onSignal = (sig: NodeJS.Signals): void => {
-    signalled ??= sig;
+    if (signalled === undefined) {
+      signalled = sig;
+      options.notify?.(`${sig} received: stopping after the current step (send it again to stop at once, without a checkpoint)`);
+      return;
+    }
+    // A second signal: the user does not want to wait. Restore the default action and re-raise it.
+    process.off('SIGINT', onSignal);
+    process.off('SIGTERM', onSignal);
+    process.kill(process.pid, sig);
   };
   const handleSignals = options.handleSignals ?? true;
   if (handleSignals) {

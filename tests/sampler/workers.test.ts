@@ -12,6 +12,7 @@ import { walkMove } from '../../src/sampler/moves/walkMove.js';
 import { createEnsembles, runEnsembles } from '../../src/sampler/runEnsembles.js';
 import { targetSpec } from '../../src/sampler/targets/index.js';
 import { workerEvaluator } from '../../src/sampler/workerEvaluator.js';
+import { createEvaluator } from '../../src/sampler/createEvaluator.js';
 import { SamplingError } from '../../src/core/errors.js';
 
 const NDIM = 5;
@@ -74,6 +75,15 @@ describe('worker pool', () => {
     // The blob is the squared Mahalanobis distance and log p = -blob / 2 (gaussian.ts).
     for (let i = 0; i < 3; i++) expect(lp[i]).toBe(-0.5 * blobs[i]);
     await ev.close();
+  });
+
+  it('createEvaluator maps the config\'s worker setting: 0 in-thread, a count of workers', async () => {
+    const inThread = await createEvaluator(SPEC, 0);
+    expect(inThread.workers).toBe(0);
+    const pooled = await createEvaluator(SPEC, 2);
+    open.push(pooled);
+    expect(pooled.workers).toBe(2);
+    await pooled.close();
   });
 
   it('fails at start-up, with the module named, when the log-density cannot be built in a worker', async () => {
