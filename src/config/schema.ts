@@ -3,6 +3,7 @@ import { catalogueSection } from './sections/catalogue.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
 import { samplerSection } from './sections/sampler.js';
+import { priorsSection } from './sections/priors.js';
 
 /**
  * The whole config: one key per section. To add a section (model, priors, sampler, ...), write
@@ -15,6 +16,7 @@ export const configSchema = z.strictObject({
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
   sampler: samplerSection.prefault({}),
+  priors: priorsSection.optional(),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;
