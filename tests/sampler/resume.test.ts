@@ -12,6 +12,9 @@ import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { SamplerRng } from '../../src/sampler/rng.js';
 
+/** Seconds-long on an idle machine; the limit allows for a CPU shared with other jobs. */
+const HEAVY_MS = 300_000;
+
 const CHILD = resolve(fileURLToPath(import.meta.url), '../fixtures/runChild.mjs');
 const base = mkdtempSync(join(tmpdir(), 'coeval-resume-'));
 afterAll(() => rmSync(base, { recursive: true, force: true }));
@@ -75,7 +78,7 @@ describe('exact resume in a child process', () => {
       expect(got.length).toBe(expected.length);
       expect(got.equals(expected), `chain after a kill at step ~${at} differs`).toBe(true);
     }
-  });
+  }, HEAVY_MS);
 
   it('automatic stop (history decimated, τ checks): SIGKILL, resume, same chain and same stopping step', async () => {
     const reference = mkdir('auto-reference');
@@ -87,7 +90,7 @@ describe('exact resume in a child process', () => {
     expect(killed.signal).toBe('SIGKILL');
     expect(runToEnd(dir, 2000, 0, 'auto', true)).toBe(last);
     expect(readFileSync(join(dir, 'chain.bin')).equals(expected)).toBe(true);
-  });
+  }, HEAVY_MS);
 
   it('SIGTERM: finishes the step, checkpoints, exits 130 with one line on how to resume; the resumed chain is identical', async () => {
     const reference = join(base, 'fixed-reference');
@@ -100,5 +103,5 @@ describe('exact resume in a child process', () => {
     expect(lines[0]).toMatch(/^interrupted by SIGTERM after step \d+; the checkpoint .*checkpoint\.json holds step \d+; resume with: node runChild\.mjs .* resume$/);
     expect(runToEnd(dir, 300, 2, 'fixed', true)).toBe('done 300 steps');
     expect(readFileSync(join(dir, 'chain.bin')).equals(expected)).toBe(true);
-  });
+  }, HEAVY_MS);
 });
