@@ -72,9 +72,11 @@ export function progressReporter(options: ProgressOptions = {}): RunObserver {
       cliProgress.Presets.shades_classic,
     );
     let started = false;
+    let stopped = false;
     return {
       onStep(states, info) {
         tally.add(states, now());
+        if (stopped) return;
         const payload = { acc: tally.acceptance.toFixed(3), tau: tauText(info), best: tally.best.toPrecision(6) };
         if (!started) {
           bar.start(info.maxSteps, info.step, payload);
@@ -83,8 +85,15 @@ export function progressReporter(options: ProgressOptions = {}): RunObserver {
           bar.update(info.step, payload);
         }
       },
+      onNotice(line) {
+        // The bar redraws its line; stop it so that the notice (and what follows) stays readable.
+        if (started && !stopped) bar.stop();
+        stopped = true;
+        stream.write(`${line}\n`);
+      },
       onEnd() {
-        if (started) bar.stop();
+        if (started && !stopped) bar.stop();
+        stopped = true;
       },
     };
   }
@@ -100,6 +109,9 @@ export function progressReporter(options: ProgressOptions = {}): RunObserver {
     );
   };
   return {
+    onNotice(line) {
+      stream.write(`${line}\n`);
+    },
     onStep(states, info) {
       const t = now();
       tally.add(states, t);

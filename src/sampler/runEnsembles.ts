@@ -42,6 +42,9 @@ export interface RunResult {
 /** Something that watches the run: progress displays, logs. */
 export interface RunObserver {
   onStep(states: readonly EnsembleState[], info: RunInfo): void;
+  /** A line for the user while the run goes on (e.g. that a signal was received). */
+  onNotice?(line: string): void;
+  /** The run ended: with its result, or undefined when it was interrupted or failed. */
   onEnd?(result: RunResult | undefined, info: RunInfo): void;
 }
 
@@ -66,8 +69,6 @@ export interface RunOptions {
   handleSignals?: boolean;
   /** Shown after an interruption: how to resume (e.g. the command line). */
   resumeHint?: string;
-  /** Where to say that a signal was received and the run is stopping (default: nowhere). */
-  notify?: (line: string) => void;
   /** The checkpoint the samplers were rebuilt from, when resuming. */
   resumedFrom?: Checkpoint;
 }
@@ -108,7 +109,7 @@ export async function runEnsembles(options: RunOptions): Promise<RunResult> {
   const onSignal = (sig: NodeJS.Signals): void => {
     if (signalled === undefined) {
       signalled = sig;
-      options.notify?.(`${sig} received: stopping after the current step (send it again to stop at once, without a checkpoint)`);
+      for (const o of observers) o.onNotice?.(`${sig} received: stopping after the current step (send it again to stop at once, without a checkpoint)`);
       return;
     }
     // A second signal: the user does not want to wait. Restore the default action and re-raise it.

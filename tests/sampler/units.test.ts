@@ -199,6 +199,15 @@ describe('progress', () => {
     bar.onStep(fakeStates(1), { step: 1, maxSteps: 10, nEnsembles: 2 });
     bar.onEnd?.(undefined, { step: 1, maxSteps: 10, nEnsembles: 2 });
     expect(tty.text).toMatch(/1\/10 steps \| acceptance 0\.500 \| tau - \| best log-prob -0\.0100000 \| ETA/);
+    // A notice (a signal was received) stops the bar so that the line stays readable.
+    const tty2 = new Capture(true);
+    const bar2 = progressReporter({ stream: tty2 });
+    bar2.onStep(fakeStates(1), { step: 1, maxSteps: 10, nEnsembles: 2 });
+    bar2.onNotice?.('SIGINT received: stopping after the current step');
+    const before = tty2.text;
+    bar2.onStep(fakeStates(2), { step: 2, maxSteps: 10, nEnsembles: 2 });
+    expect(tty2.text).toBe(before);
+    expect(before.endsWith('\nSIGINT received: stopping after the current step\n')).toBe(true);
     const quiet = new Capture(true);
     const q = progressReporter({ stream: quiet, quiet: true });
     q.onStep(fakeStates(1), { step: 1, maxSteps: 10, nEnsembles: 2 });
