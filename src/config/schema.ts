@@ -3,6 +3,7 @@ import { catalogueSection } from './sections/catalogue.js';
 import { gridSection } from './sections/grid.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
+import { samplerSection } from './sections/sampler.js';
 import { priorsSection } from './sections/priors.js';
 
 /**
@@ -15,6 +16,7 @@ export const configSchema = z.strictObject({
   catalogue: catalogueSection,
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
+  sampler: samplerSection.prefault({}),
   priors: priorsSection.optional(),
   grid: gridSection.optional(),
 });
