@@ -39,7 +39,7 @@ export function gridFromIsochrones(isos: Isochrone[], source: Pick<IsochroneSour
       eepEncodesPhase: isos.every((i) => i.phaseCoord.every((u, k) => Math.floor(u) === i.phase[k])),
       columnMap: {},
       sources: [],
-      notes: [`built by coeval from ${source.provenance.model}; its caveats: ${source.provenance.caveats.join(' ')}`],
+      notes: [`built by coeval from ${source.provenance.model}`, ...source.provenance.caveats],
       createdBy,
     },
     bands: [...bands],

@@ -130,7 +130,7 @@ export function formatGridInfo(i: GridInfo): string {
   const f = (x: number, d = 4): string => (Number.isFinite(x) ? x.toFixed(d) : String(x));
   out.push(`grid        ${i.name}`);
   out.push(`citation    ${i.citation || '(none given: add one before publishing)'}`);
-  out.push(`tables      ${i.sources.length} file${i.sources.length === 1 ? '' : 's'}: ${i.sources.map((s) => s.path).join(', ')}`);
+  out.push(i.sources.length === 0 ? 'tables      none: computed by coeval (see the notes)' : `tables      ${i.sources.length} file${i.sources.length === 1 ? '' : 's'}: ${i.sources.map((s) => s.path).join(', ')}`);
   out.push(`isochrones  ${i.nIsochrones} (${i.nRows} rows; ${i.rowsPerIsochrone.min} / ${i.rowsPerIsochrone.median} / ${i.rowsPerIsochrone.max} rows per isochrone, min / median / max)`);
   out.push(`bands       ${i.bands.join(', ')}`);
   const metWords = i.metallicityScale === 'z' ? `from Z with solar Z = ${i.solarZ}` : i.metallicityScale === 'm_h' ? 'from [M/H]' : 'as given';

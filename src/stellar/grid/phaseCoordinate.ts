@@ -17,16 +17,22 @@
  * segments; landmark j has u = j, and within a segment u rises with the normalised arc length:
  *   0 START  the first row.
  *   1 FAINT  the faintest point before the turnoff (the start, unless pre-main-sequence stars lead in).
- *   2 TO     the turnoff: the first maximum of log Teff that the curve then leaves by more than 0.003 dex
- *            (turning points are found by a zigzag filter with that threshold, so rounding noise in the
- *            table does not make turning points).
- *   3 HOOKR  the red end of the main-sequence hook (the next log Teff minimum), and
- *   4 HOOKB  its blue end (the maximum after it). A hook is accepted only close to the turnoff (within
- *            0.06 dex in Teff and 0.5 dex in L); without one, TO = HOOKR = HOOKB.
+ *   6 TIP    (found first) the tip of the giant branch: the brightest point so far, at the first place where
+ *            the curve has fallen from it by more than 0.05 dex in L while turning bluer by more than
+ *            0.01 dex in Teff (helium ignition). The subgiant branch fades but turns red, and the bump
+ *            neither fades nor turns blue that much. Without such a place, TIP = END.
+ *   2 TO     the turnoff: the hottest point before TIP; where the main sequence ends in a hook, the hook's
+ *            red end (the maximum before the hook is ill-defined where the upper main sequence is nearly
+ *            vertical, while the hook's minimum is sharp).
+ *   3 HOOKR  the red end of the hook (= TO), and
+ *   4 HOOKB  its blue end. Turning points in log Teff are found by a zigzag filter with a threshold of
+ *            0.01 dex (rounding noise and shallow main-sequence wiggles make none); a minimum next to the
+ *            hottest point (before it, or before a second maximum after it), within 0.06 dex in Teff and
+ *            0.5 dex in L, makes the hook. Without one, TO = HOOKR = HOOKB = the hottest point. A hook
+ *            shallower than the threshold counts as none, so where it fades with age the coordinate shifts
+ *            by the hook's small arc (a limitation of shape-derived phases; an EEP column has none).
  *   5 KNEE   the base of the giant branch: the point between HOOKB and TIP farthest from the straight line
  *            joining them (the knee where the subgiant branch turns up into the giant branch).
- *   6 TIP    the tip of the giant branch: the reddest point before the curve turns blue by more than 0.01 dex
- *            in log Teff (helium ignition; a zigzag filter with that threshold ignores the bump).
  *   7 LMIN   the faintest point after the tip (the zero-age horizontal branch, or the start of the blue loop).
  *   8 BLUE   the bluest point after LMIN (the blue end of the horizontal branch or of the loop).
  *   9 END    the last row.
@@ -52,7 +58,8 @@ export interface PreparedCurve {
 
 export const DERIVED_SEGMENTS = 9;
 const TEFF_WEIGHT = 10;
-const ZIGZAG_TURNOFF = 0.003;
+const ZIGZAG_TURNOFF = 0.01;
+const TIP_DROP_L = 0.05;
 const ZIGZAG_TIP = 0.01;
 const HOOK_MAX_DTEFF = 0.06;
 const HOOK_MAX_DL = 0.5;
@@ -162,22 +169,35 @@ export function findLandmarks(x: Float64Array, y: Float64Array, start: number, n
   const X = (i: number): number => x[start + i];
   const Y = (i: number): number => y[start + i];
   const end = n - 1;
-  const turns = zigzag(X, 0, end, ZIGZAG_TURNOFF);
-  const firstMax = turns.find((t) => t.max);
-  const to = firstMax ? firstMax.idx : end;
-  let hookR = to;
-  let hookB = to;
-  if (firstMax) {
-    const k = turns.indexOf(firstMax);
-    const r = turns[k + 1];
-    const b = turns[k + 2];
-    if (r && b && !r.max && b.max && X(to) - X(r.idx) < HOOK_MAX_DTEFF && Math.abs(Y(r.idx) - Y(to)) < HOOK_MAX_DL && Math.abs(Y(b.idx) - Y(to)) < HOOK_MAX_DL) {
-      hookR = r.idx;
-      hookB = b.idx;
+  // TIP: the brightest point so far, once the curve has left it downwards (> TIP_DROP_L dex in L) and
+  // bluewards (> ZIGZAG_TIP dex in Teff) at once; the subgiant branch fades while it turns red, and the
+  // bump neither fades nor turns blue that much, so neither is taken for the tip.
+  let tip = end;
+  let brightest = 0;
+  for (let i = 1; i <= end; i++) {
+    if (Y(i) > Y(brightest)) brightest = i;
+    else if (Y(brightest) - Y(i) > TIP_DROP_L && X(i) - X(brightest) > ZIGZAG_TIP) {
+      tip = brightest;
+      break;
     }
   }
-  const tipTurn = zigzag(X, hookB, end, ZIGZAG_TIP).find((t) => !t.max);
-  const tip = tipTurn ? tipTurn.idx : end;
+  // TO: the hottest point before the tip; a hook is a maximum-minimum-maximum around it.
+  let hot = 0;
+  for (let i = 0; i <= tip; i++) if (X(i) > X(hot)) hot = i;
+  let to = hot;
+  let hookR = hot;
+  let hookB = hot;
+  const turns = zigzag(X, 0, tip, ZIGZAG_TURNOFF);
+  const k = turns.findIndex((t) => t.idx === hot && t.max);
+  const near = (a: number, b: number): boolean => Math.abs(X(a) - X(b)) < HOOK_MAX_DTEFF && Math.abs(Y(a) - Y(b)) < HOOK_MAX_DL;
+  if (k >= 1 && !turns[k - 1].max && near(turns[k - 1].idx, hot)) {
+    // The hottest point is the blue end of a hook whose red end comes just before it.
+    to = hookR = turns[k - 1].idx;
+  } else if (k >= 0 && k + 2 < turns.length && !turns[k + 1].max && turns[k + 2].max && near(turns[k + 1].idx, hot) && near(turns[k + 2].idx, hot)) {
+    // The hottest point starts a hook: a minimum, then a (cooler) maximum.
+    to = hookR = turns[k + 1].idx;
+    hookB = turns[k + 2].idx;
+  }
   // Knee: farthest from the chord hookB-tip in the scaled plane.
   let knee = hookB;
   if (tip - hookB >= 2) {
