@@ -9,6 +9,7 @@
 import { createHash } from 'node:crypto';
 import { closeSync, openSync, readSync, statSync } from 'node:fs';
 import { ConfigError, InputError } from '../../core/errors.js';
+import { requireFile } from '../../core/files.js';
 import type { BandId } from '../../core/bands.js';
 import type { GridIsochroneInfo, GridMeta, GridSourceFile, GridTable } from './gridTable.js';
 import type { GridImportSpec } from './importSpec.js';
@@ -60,6 +61,7 @@ export async function importGrid(spec: GridImportSpec, createdBy = 'coeval'): Pr
   const details: { path: string; detail: string }[] = [];
   const parts: { raw: RawGridTable; logAge: Float64Array; feh: Float64Array; metRaw: Float64Array; source: number }[] = [];
   for (const file of spec.files) {
+    requireFile(file.path, 'isochrone table');
     const format = spec.format === 'auto' ? detectFormat(file.path) : spec.format;
     const req: RawTableRequest = {
       numbers: numberCols,
