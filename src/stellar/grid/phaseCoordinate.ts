@@ -27,7 +27,7 @@
  *   3 HOOKR  the red end of the hook (= TO), and
  *   4 HOOKB  its blue end. Turning points in log Teff are found by a zigzag filter with a threshold of
  *            0.01 dex (rounding noise and shallow main-sequence wiggles make none); a minimum next to the
- *            hottest point (before it, or before a second maximum after it), within 0.06 dex in Teff and
+ *            hottest point (before it, or before a second maximum after it), within 0.15 dex in Teff and
  *            0.5 dex in L, makes the hook. Without one, TO = HOOKR = HOOKB = the hottest point. A hook
  *            shallower than the threshold counts as none, so where it fades with age the coordinate shifts
  *            by the hook's small arc (a limitation of shape-derived phases; an EEP column has none).
@@ -61,7 +61,7 @@ const TEFF_WEIGHT = 10;
 const ZIGZAG_TURNOFF = 0.01;
 const TIP_DROP_L = 0.05;
 const ZIGZAG_TIP = 0.01;
-const HOOK_MAX_DTEFF = 0.06;
+const HOOK_MAX_DTEFF = 0.15;
 const HOOK_MAX_DL = 0.5;
 /** coeval phase of each derived segment (approximate: the shape alone does not separate HB from AGB). */
 const SEGMENT_PHASE: readonly Phase[] = [
