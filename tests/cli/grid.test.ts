@@ -100,3 +100,33 @@ describe('coeval check with a user grid', () => {
     expectUserError(runCli(['check', cfg]), 4, new RegExp(`bad\\.dat:${k + 1}, column "lg_Te": .*missing or non-finite`), /drop_nan_rows/);
   });
 });
+
+describe('coeval grid build', async () => {
+  const { builtinAvailable } = await import('../../src/pipeline/builtinModel.js');
+  const have = await builtinAvailable();
+
+  it.skipIf(!have)('writes the built-in model\'s grid as Arrow and as stacked text, and the text imports back to the same numbers', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'coeval-cli-build-'));
+    const r = runCli(['grid', 'build', '--ages', '9.9:10.0:0.05', '--feh=-1.5,-1.25', '--bands', 'B,V,I', '--out', join(dir, 'b.arrow'), '--text', join(dir, 'b.dat')]);
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/isochrones {2}6 /);
+    expect(readFileSync(join(dir, 'b.dat'), 'utf8').split('\n').filter((l) => l.startsWith('# isochrone '))).toHaveLength(6);
+    writeFileSync(
+      join(dir, 'map.toml'),
+      `[grid]\nfiles = ["b.dat"]\nphase_kind = "eep"\ncitation = "built-in"\n[grid.columns]\nage = "log_age"\nmetallicity = "feh"\nmass_initial = "mass_initial"\nmass_current = "mass_current"\nphase = "eep"\nlog_teff = "log_teff"\nlog_g = "log_g"\nlog_l = "log_l"\n[grid.bands]\nB = "mag_B"\nV = "mag_V"\nI = "mag_I"\n`,
+    );
+    const imp = runCli(['grid', 'import', '--map', join(dir, 'map.toml'), '--out', join(dir, 'back.arrow'), '--json']);
+    expect(imp.status, imp.stderr).toBe(0);
+    const a = JSON.parse(runCli(['grid', 'info', join(dir, 'b.arrow'), '--json']).stdout) as { nRows: number; logAges: number[]; fehs: number[] };
+    const b = JSON.parse(imp.stdout) as { nRows: number; logAges: number[]; fehs: number[] };
+    expect([b.nRows, b.logAges, b.fehs]).toEqual([a.nRows, a.logAges, a.fehs]);
+  });
+
+  it.skipIf(have)('says plainly that the built-in builder is missing from this build', () => {
+    expectUserError(runCli(['grid', 'build', '--ages', '9.9', '--feh=-1.5', '--out', join(mkdtempSync(join(tmpdir(), 'coeval-cli-build-')), 'b.arrow')]), 5, /built-in isochrone builder is not part of this build/);
+  });
+
+  it('refuses malformed --ages', () => {
+    expectUserError(runCli(['grid', 'build', '--ages', '10:9:0.05', '--feh=-1', '--out', join(mkdtempSync(join(tmpdir(), 'coeval-cli-build-')), 'b.arrow')]), 2, /--ages is not a list of numbers or start:stop:step/);
+  });
+});
