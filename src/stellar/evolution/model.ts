@@ -23,6 +23,11 @@ export function massLimits(Z: number): { mHook: number; mHeF: number; mFGB: numb
 
 /** The metallicities the fits cover (HPT2000 section 1). */
 export const Z_RANGE: readonly [number, number] = [1e-4, 0.03];
+/**
+ * Highest Z accepted: [Fe/H] = +0.2 at the model's solar Z, a 0.024 dex extrapolation in zeta beyond the
+ * fits (stated in the model caveats).
+ */
+export const Z_MAX_ACCEPTED = 0.02 * 10 ** 0.2;
 
 function build(Z: number): EvolutionModel {
   const coef = computeCoefficients(Z);
@@ -91,14 +96,14 @@ const cache = new Map<number, EvolutionModel>();
 const CACHE_LIMIT = 256;
 
 /**
- * The evolution model at metallicity Z (1e-4 <= Z <= 0.03), cached by Z. Throws RangeError outside the
+ * The evolution model at metallicity Z (1e-4 <= Z <= 0.0317), cached by Z. Throws RangeError outside the
  * range: callers validate user input first and raise located errors.
  */
 export function evolutionModel(Z: number): EvolutionModel {
   let m = cache.get(Z);
   if (m) return m;
-  if (!(Z >= Z_RANGE[0] * (1 - 1e-9) && Z <= Z_RANGE[1] * (1 + 1e-9))) {
-    throw new RangeError(`Z = ${Z} is outside the range of the Hurley, Pols & Tout 2000 fits (${Z_RANGE[0]} to ${Z_RANGE[1]})`);
+  if (!(Z >= Z_RANGE[0] * (1 - 1e-9) && Z <= Z_MAX_ACCEPTED * (1 + 1e-9))) {
+    throw new RangeError(`Z = ${Z} is outside the range of the Hurley, Pols & Tout 2000 fits (${Z_RANGE[0]} to ${Z_RANGE[1]}, extended to ${Z_MAX_ACCEPTED.toFixed(4)})`);
   }
   m = build(Z);
   if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value as number);
