@@ -5,32 +5,35 @@
  * Mc,BAGB > 0.8 Msun), where thermal pulses begin; more massive cores (Mc,BAGB >= 1.6) end it at the core
  * mass of carbon ignition. The thermally pulsing AGB is not modelled.
  */
+import { pow, powLn } from './fastMath.js';
 import { A_HE, CoreLaw } from './coreMassLuminosity.js';
 import type { EvolutionModel } from './types.js';
 
 /** Luminosity at the base of the AGB (eq. 56). */
 export function lBAGB(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  if (m < model.mHeF) return (b[29] * m ** b[30]) / (1 + model.derived.alpha3 * Math.exp(15 * (m - model.mHeF)));
+  if (m < model.mHeF) return (b[29] * pow(m, b[30])) / (1 + model.derived.alpha3 * Math.exp(15 * (m - model.mHeF)));
   return lBAGBHigh(model, m);
 }
 
 /** The intermediate-mass branch of eq. (56), used to fix its low-mass continuity constant. */
 export function lBAGBHigh(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  return (b[31] + b[32] * m ** (b[33] + 1.8)) / (b[34] + m ** b[33]);
+  const mb33 = pow(m, b[33]);
+  return (b[31] + b[32] * mb33 * pow(m, 1.8)) / (b[34] + mb33);
 }
 
 /** Core mass at the base of the AGB (eq. 66). */
 export function coreMassBAGB(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  return (b[36] * m ** b[37] + b[38]) ** 0.25;
+  return Math.sqrt(Math.sqrt(b[36] * pow(m, b[37]) + b[38]));
 }
 
 /** The prefactor A of eq. (74) on its intermediate-mass branch. */
 export function agbPrefactorHigh(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  return Math.min(b[51] * m ** -b[52], b[53] * m ** -b[54]);
+  const lnm = Math.log(m);
+  return Math.min(b[51] * powLn(lnm, -b[52]), b[53] * powLn(lnm, -b[54]));
 }
 
 /** AGB radius at luminosity l for current mass m (eq. 74). */
@@ -50,7 +53,8 @@ export function rAGB(model: EvolutionModel, m: number, l: number): number {
     A = model.derived.agbALow + (model.derived.agbAHigh - model.derived.agbALow) * f;
     b50 = b[3] * (1 + (b[55] - 1) * f);
   }
-  return A * (l ** b[1] + b[2] * l ** b50);
+  const lnl = Math.log(l);
+  return A * (powLn(lnl, b[1]) + b[2] * powLn(lnl, b50));
 }
 
 /** The core mass at which the EAGB ends (section 5.4; second dredge-up eq. 69; carbon ignition eq. 75). */

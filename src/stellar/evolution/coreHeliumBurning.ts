@@ -10,6 +10,7 @@
  * `mHe` is the mass at helium ignition, which sets the envelope-dependent low-mass formulae (ZAHB, lifetime,
  * L_BAGB) and all radii of the phase. Giant-branch mass loss therefore moves the horizontal branch.
  */
+import { pow, powLn } from './fastMath.js';
 import { coreMassBAGB, lBAGB, rAGB } from './asymptoticGiantBranch.js';
 import { lHeI, rGB } from './giantBranch.js';
 import { lZHe, rZHe, tHeMS } from './heliumStar.js';
@@ -32,34 +33,39 @@ export function lZAHB(model: EvolutionModel, m: number, mc: number): number {
   const lm = model.derived.lMinHeAtHeF;
   const alpha2 = (b[18] + lzhe - lm) / (lm - lzhe);
   const mu = envelopeMu(model, m, mc);
-  return lzhe + (((1 + b[20]) / (1 + b[20] * mu ** ZAHB_EXPONENT)) * b[18] * mu ** b[19]) / (1 + alpha2 * Math.exp(15 * (m - model.mHeF)));
+  const lnmu = Math.log(mu);
+  return lzhe + (((1 + b[20]) / (1 + b[20] * powLn(lnmu, ZAHB_EXPONENT))) * b[18] * powLn(lnmu, b[19])) / (1 + alpha2 * Math.exp(15 * (m - model.mHeF)));
 }
 
 /** Zero-age horizontal-branch radius (eq. 54). */
 export function rZAHB(model: EvolutionModel, m: number, mc: number, lzahb: number): number {
   const b = model.coef.b;
   const mu = envelopeMu(model, m, mc);
-  const f = ((1 + b[21]) * mu ** b[22]) / (1 + b[21] * mu ** b[23]);
+  const lnmu = Math.log(mu);
+  const f = ((1 + b[21]) * powLn(lnmu, b[22])) / (1 + b[21] * powLn(lnmu, b[23]));
   return (1 - f) * rZHe(mc) + f * rGB(model, m, lzahb);
 }
 
 /** Minimum radius during the blue loop for M >= M_HeF (eq. 55). */
 export function rMinHeHigh(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  return (b[24] * m + (b[25] * m) ** b[26] * m ** b[28]) / (b[27] + m ** b[28]);
+  const mb28 = pow(m, b[28]);
+  return (b[24] * m + pow(b[25] * m, b[26]) * mb28) / (b[27] + mb28);
 }
 
 /** L_min,He / L_HeI for M_HeF <= M < M_FGB (eq. 51). */
 export function lMinHeRatio(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  return (b[14] + model.derived.cMinHe * m ** (b[15] + 0.1)) / (b[16] + m ** b[15]);
+  const mb15 = pow(m, b[15]);
+  return (b[14] + model.derived.cMinHe * mb15 * pow(m, 0.1)) / (b[16] + mb15);
 }
 
 /** CHeB lifetime for M >= M_HeF, as a multiple of t_BGB (eq. 57). */
 export function tHeRatioHigh(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  const m5 = m ** 5;
-  return (b[41] * m ** b[42] + b[43] * m5) / (b[44] + m5);
+  const m2 = m * m;
+  const m5 = m2 * m2 * m;
+  return (b[41] * pow(m, b[42]) + b[43] * m5) / (b[44] + m5);
 }
 
 /** Fraction of the CHeB lifetime spent in the blue loop (eq. 58). */
@@ -71,10 +77,10 @@ export function blueLoopFraction(model: EvolutionModel, m: number): number {
   if (m <= model.mFGB) {
     const x = m / model.mFGB;
     const y = Math.max(Math.log10(x) / Math.log10(model.mHeF / model.mFGB), 1e-12);
-    tbl = b[45] * x ** TBL_EXPONENT + d.tblAlpha * y ** d.tblLogExponent;
+    tbl = b[45] * pow(x, TBL_EXPONENT) + d.tblAlpha * pow(y, d.tblLogExponent);
   } else {
     const r = Math.max(1 - rMinHeHigh(model, m) / rAGB(model, m, lHeI(model, m)), 1e-12);
-    tbl = d.tblHighNorm * m ** b[48] * r ** b[49];
+    tbl = d.tblHighNorm * pow(m, b[48]) * pow(r, b[49]);
   }
   tbl = Math.min(1, Math.max(0, tbl));
   return tbl < 1e-10 ? 0 : tbl;
@@ -126,10 +132,10 @@ export class CoreHeliumBurning {
     this.lBAGB = lBAGB(model, mF);
     if (lowMass) {
       const mu1 = Math.max((model.mHeF - mHe) / (model.mHeF - mcHeI), 1e-12);
-      this.tHe = (b[39] + (tHeMS(mcHeI) - b[39]) * mu1 ** b[40]) * (1 + model.derived.alpha4 * Math.exp(15 * (mHe - model.mHeF)));
+      this.tHe = (b[39] + (tHeMS(mcHeI) - b[39]) * pow(mu1, b[40])) * (1 + model.derived.alpha4 * Math.exp(15 * (mHe - model.mHeF)));
       this.lZAHB = lZAHB(model, mHe, mcHeI);
       this.rZAHB = rZAHB(model, mHe, mcHeI, this.lZAHB);
-      this.rMinHe = rGB(model, mHe, this.lZAHB) * model.derived.rMinHeRatioLM ** (mHe / model.mHeF);
+      this.rMinHe = rGB(model, mHe, this.lZAHB) * pow(model.derived.rMinHeRatioLM, mHe / model.mHeF);
       this.tauBL = 1;
       this.tauX = 0;
       this.lx = this.lZAHB;
@@ -162,12 +168,13 @@ export class CoreHeliumBurning {
   luminosity(tau: number): number {
     const tx = this.tauX;
     if (tau < tx) {
-      const lam = ((tx - tau) / tx) ** 3;
-      return this.lx * (this.lHeI / this.lx) ** lam;
+      const u = (tx - tau) / tx;
+      return this.lx * pow(this.lHeI / this.lx, u * u * u);
     }
     const span = 1 - tx;
-    const lam = span > 0 ? ((tau - tx) / span) ** this.xi : 1;
-    return this.lx * (this.lBAGB / this.lx) ** lam;
+    const u = (tau - tx) / span;
+    const lam = span > 0 ? (u > 0 ? pow(u, this.xi) : 0) : 1;
+    return this.lx * pow(this.lBAGB / this.lx, lam);
   }
 
   /** Radius at phase fraction tau, given the luminosity there. */
@@ -176,7 +183,8 @@ export class CoreHeliumBurning {
     if (tau > this.tauY || this.tauY <= this.tauX) return rAGB(model, this.mR, l);
     const f = (tau - this.tauX) / (this.tauY - this.tauX);
     const rho = this.rhoY * f - this.rhoX * (1 - f);
-    return this.rMin * Math.exp(Math.abs(rho) ** 3);
+    const ar = Math.abs(rho);
+    return this.rMin * Math.exp(ar * ar * ar);
   }
 
   coreMass(tau: number): number {

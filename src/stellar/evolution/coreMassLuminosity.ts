@@ -5,6 +5,7 @@
  * Integrating from a starting point (t0, L0) gives Mc(t) in closed form (eq. 39) with the times t_inf1,
  * t_x and t_inf2 of eqs. (40)-(42). `CoreLaw` holds one star's law; it is reused between stars.
  */
+import { exp10, pow, powLn } from './fastMath.js';
 import type { EvolutionModel } from './types.js';
 
 /** A_He in Msun Lsun^-1 Myr^-1, for the CO core growth on the AGB (section 5.4). */
@@ -12,7 +13,7 @@ export const A_HE = 7.66e-5;
 
 /** A_H (eq. 43), Msun Lsun^-1 Myr^-1. */
 export function hydrogenRate(m: number): number {
-  return 10 ** Math.max(-4.8, Math.min(-5.7 + 0.8 * m, -4.1 + 0.14 * m));
+  return exp10(Math.max(-4.8, Math.min(-5.7 + 0.8 * m, -4.1 + 0.14 * m)));
 }
 
 export class CoreLaw {
@@ -54,10 +55,10 @@ export class CoreLaw {
         logD = d0 + f * (high25 - d0);
       }
     }
-    this.D = 10 ** logD;
-    this.B = Math.max(3.0e4, 500.0 + 1.75e4 * m ** 0.6);
-    this.mx = (this.B / this.D) ** (1 / (this.p - this.q));
-    this.lx = this.D * this.mx ** this.p;
+    this.D = exp10(logD);
+    this.B = Math.max(3.0e4, 500.0 + 1.75e4 * pow(m, 0.6));
+    this.mx = pow(this.B / this.D, 1 / (this.p - this.q));
+    this.lx = this.D * pow(this.mx, this.p);
     return this;
   }
 
@@ -68,35 +69,36 @@ export class CoreLaw {
     this.t0 = t0;
     this.l0 = l0;
     if (l0 <= this.lx) {
-      this.tInf1 = t0 + (1 / ((p - 1) * A * D)) * (D / l0) ** ((p - 1) / p);
-      this.tX = this.tInf1 - (this.tInf1 - t0) * (l0 / this.lx) ** ((p - 1) / p);
-      this.tInf2 = this.tX + (1 / ((q - 1) * A * B)) * (B / this.lx) ** ((q - 1) / q);
+      this.tInf1 = t0 + (1 / ((p - 1) * A * D)) * pow(D / l0, (p - 1) / p);
+      this.tX = this.tInf1 - (this.tInf1 - t0) * pow(l0 / this.lx, (p - 1) / p);
+      this.tInf2 = this.tX + (1 / ((q - 1) * A * B)) * pow(B / this.lx, (q - 1) / q);
     } else {
       // Starting above the crossover: only the B branch is ever used.
       this.tInf1 = t0;
       this.tX = t0;
-      this.tInf2 = t0 + (1 / ((q - 1) * A * B)) * (B / l0) ** ((q - 1) / q);
+      this.tInf2 = t0 + (1 / ((q - 1) * A * B)) * pow(B / l0, (q - 1) / q);
     }
     return this;
   }
 
   luminosity(mc: number): number {
-    return Math.min(this.B * mc ** this.q, this.D * mc ** this.p);
+    const lnmc = Math.log(mc);
+    return Math.min(this.B * powLn(lnmc, this.q), this.D * powLn(lnmc, this.p));
   }
 
   coreMass(l: number): number {
-    return l <= this.lx ? (l / this.D) ** (1 / this.p) : (l / this.B) ** (1 / this.q);
+    return l <= this.lx ? pow(l / this.D, 1 / this.p) : pow(l / this.B, 1 / this.q);
   }
 
   /** Mc(t) of eq. (39). */
   coreMassAt(t: number): number {
-    if (t <= this.tX) return ((this.p - 1) * this.A * this.D * (this.tInf1 - t)) ** (1 / (1 - this.p));
-    return ((this.q - 1) * this.A * this.B * (this.tInf2 - t)) ** (1 / (1 - this.q));
+    if (t <= this.tX) return pow((this.p - 1) * this.A * this.D * (this.tInf1 - t), 1 / (1 - this.p));
+    return pow((this.q - 1) * this.A * this.B * (this.tInf2 - t), 1 / (1 - this.q));
   }
 
   /** The age at which the law reaches luminosity L (the inverse of eqs. 39 and 37). */
   timeAtLuminosity(l: number): number {
-    if (l <= this.lx) return this.tInf1 - (1 / ((this.p - 1) * this.A * this.D)) * (this.D / l) ** ((this.p - 1) / this.p);
-    return this.tInf2 - (1 / ((this.q - 1) * this.A * this.B)) * (this.B / l) ** ((this.q - 1) / this.q);
+    if (l <= this.lx) return this.tInf1 - (1 / ((this.p - 1) * this.A * this.D)) * pow(this.D / l, (this.p - 1) / this.p);
+    return this.tInf2 - (1 / ((this.q - 1) * this.A * this.B)) * pow(this.B / l, (this.q - 1) / this.q);
   }
 }

@@ -3,6 +3,7 @@
  * helium-ignition luminosity (eq. 49) and the core masses at the base and at ignition (eq. 44 and the end of
  * section 5.3). The luminosity follows the core-mass-luminosity law (`CoreLaw`).
  */
+import { pow, powLn } from './fastMath.js';
 import { CoreLaw } from './coreMassLuminosity.js';
 import { coreMassBAGB } from './asymptoticGiantBranch.js';
 import type { EvolutionModel } from './types.js';
@@ -17,42 +18,45 @@ const C2_MC = 5.402216;
 /** Luminosity at the base of the giant branch (eq. 10). */
 export function lBGB(model: EvolutionModel, m: number): number {
   const a = model.coef.a;
-  return (a[27] * m ** a[31] + a[28] * m ** C2_LBGB) / (a[29] + a[30] * m ** C3_LBGB + m ** a[32]);
+  const lnm = Math.log(m);
+  return (a[27] * powLn(lnm, a[31]) + a[28] * powLn(lnm, C2_LBGB)) / (a[29] + a[30] * powLn(lnm, C3_LBGB) + powLn(lnm, a[32]));
 }
 
 /** Giant-branch radius at luminosity l for current mass m (eq. 46). */
 export function rGB(model: EvolutionModel, m: number, l: number): number {
   const b = model.coef.b;
-  const A = Math.min(b[4] * m ** -b[5], b[6] * m ** -b[7]);
-  return A * (l ** b[1] + b[2] * l ** b[3]);
+  const lnm = Math.log(m);
+  const lnl = Math.log(l);
+  const A = Math.min(b[4] * powLn(lnm, -b[5]), b[6] * powLn(lnm, -b[7]));
+  return A * (powLn(lnl, b[1]) + b[2] * powLn(lnl, b[3]));
 }
 
 /** Helium-ignition luminosity (eq. 49). */
 export function lHeI(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  if (m < model.mHeF) return (b[9] * m ** b[10]) / (1 + model.derived.alpha1 * Math.exp(15 * (m - model.mHeF)));
-  return (b[11] + b[12] * m ** 3.8) / (b[13] + m * m);
+  if (m < model.mHeF) return (b[9] * pow(m, b[10])) / (1 + model.derived.alpha1 * Math.exp(15 * (m - model.mHeF)));
+  return lHeIHigh(model, m);
 }
 
 /** The intermediate-mass branch of eq. (49), used to fix alpha_1. */
 export function lHeIHigh(model: EvolutionModel, m: number): number {
   const b = model.coef.b;
-  return (b[11] + b[12] * m ** 3.8) / (b[13] + m * m);
+  return (b[11] + b[12] * pow(m, 3.8)) / (b[13] + m * m);
 }
 
 /** Core mass at the base of the GB for M >= M_HeF (eq. 44). */
 export function coreMassBGBHigh(model: EvolutionModel, m: number): number {
-  return Math.min(0.95 * coreMassBAGB(model, m), (model.derived.cBGB + C1_MC * m ** C2_MC) ** 0.25);
+  return Math.min(0.95 * coreMassBAGB(model, m), Math.sqrt(Math.sqrt(model.derived.cBGB + C1_MC * pow(m, C2_MC))));
 }
 
 /** Core mass at helium ignition for M >= M_HeF (eq. 44 with L_HeI in place of L_BGB; end of section 5.3). */
 export function coreMassHeIHigh(model: EvolutionModel, m: number): number {
-  return Math.min(0.95 * coreMassBAGB(model, m), (model.derived.cHeI + C1_MC * m ** C2_MC) ** 0.25);
+  return Math.min(0.95 * coreMassBAGB(model, m), Math.sqrt(Math.sqrt(model.derived.cHeI + C1_MC * pow(m, C2_MC))));
 }
 
 /** c1 M^c2 of eq. (44), for the continuity constants. */
 export function coreMassTerm(m: number): number {
-  return C1_MC * m ** C2_MC;
+  return C1_MC * pow(m, C2_MC);
 }
 
 /**

@@ -6,7 +6,7 @@
 
 /** rho of eq. (29): the core mass at the end of the main sequence as a fraction of Mc,EHG. */
 export function coreFractionTMS(m: number): number {
-  const x = m ** 5.25;
+  const x = Math.exp(5.25 * Math.log(m));
   return (1.586 + x) / (2.434 + 1.02 * x);
 }
 

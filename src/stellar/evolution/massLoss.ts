@@ -10,14 +10,16 @@
  * outside the isochrone domain; they are left out (see the model caveats). Units: Msun/yr, Lsun, Rsun.
  */
 
+import { exp10 } from './fastMath.js';
+
 export const DEFAULT_REIMERS_ETA = 0.5;
 
 export function massLossRate(Z: number, eta: number, l: number, r: number, m: number, onAGB: boolean): number {
   let rate = (4e-13 * eta * l * r) / m;
-  if (l > 4000) rate = Math.max(rate, 9.6e-15 * Math.sqrt(Z / 0.02) * r ** 0.81 * l ** 1.24 * m ** 0.16);
+  if (l > 4000) rate = Math.max(rate, 9.6e-15 * Math.sqrt(Z / 0.02) * Math.exp(0.81 * Math.log(r) + 1.24 * Math.log(l) + 0.16 * Math.log(m)));
   if (onAGB) {
-    const p0 = 10 ** Math.min(3.3, -2.07 - 0.9 * Math.log10(m) + 1.94 * Math.log10(r));
-    const vw = Math.min(10 ** (-11.4 + 0.0125 * (p0 - 100 * Math.max(m - 2.5, 0))), 1.36e-9 * l);
+    const p0 = exp10(Math.min(3.3, -2.07 - 0.9 * Math.log10(m) + 1.94 * Math.log10(r)));
+    const vw = Math.min(exp10(-11.4 + 0.0125 * (p0 - 100 * Math.max(m - 2.5, 0))), 1.36e-9 * l);
     rate = Math.max(rate, vw);
   }
   return rate;

@@ -9,6 +9,7 @@
  * the paper prescribes; the core-helium-burning phase of a low-mass star is set by its mass at helium
  * ignition (`mHeI`), which is how giant-branch mass loss moves the horizontal branch.
  */
+import { exp10, pow } from './fastMath.js';
 import { Phase } from '../types.js';
 import { EarlyAGB, rAGB } from './asymptoticGiantBranch.js';
 import { CoreHeliumBurning, rMinHeHigh } from './coreHeliumBurning.js';
@@ -25,7 +26,7 @@ export function rHeIHighMass(model: EvolutionModel, m0: number, mass: number, lH
   const rmin = rMinHeHigh(model, m0);
   if (m0 >= 12 || model.mFGB >= 12) return rmin;
   const mu = Math.log10(m0 / 12) / Math.log10(model.mFGB / 12);
-  return rmin * (rGB(model, mass, lHeI) / rmin) ** mu;
+  return rmin * pow(rGB(model, mass, lHeI) / rmin, mu);
 }
 
 export class StellarTrack implements MassDerivative {
@@ -191,7 +192,7 @@ export class StellarTrack implements MassDerivative {
     switch (phase) {
       case Phase.HertzsprungGap: {
         this.hg.at(x, this.tmp);
-        const rate = massLossRate(Z, eta, 10 ** this.tmp[0], 10 ** this.tmp[1], m, false);
+        const rate = massLossRate(Z, eta, exp10(this.tmp[0]), exp10(this.tmp[1]), m, false);
         return -1e6 * rate * (this.tBGB - this.tMS);
       }
       case Phase.GiantBranch: {

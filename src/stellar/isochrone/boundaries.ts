@@ -26,19 +26,35 @@ export interface PhaseInterval {
 
 const scratch = new StellarTrack();
 
-/** Root of t_X(m) = t on [lo, hi], where t_X(lo) >= t; returns hi if t_X stays above t. */
-function crossing(f: (m: number) => number, lo: number, hi: number): number {
-  const fLo = f(lo);
-  if (fLo <= 0) return lo;
-  let b = hi;
-  let fb = f(b);
-  if (fb > 0) return hi;
-  return bracketedRoot(f, lo, b, fLo, fb);
+/**
+ * Root of f(m) = t_X(m) - t on [lo, hi], where f(lo) >= 0 and f falls with m; returns hi if f stays
+ * positive. Phase boundaries lie close above the previous one, so the bracket grows geometrically in ln m
+ * from lo (1, 2, 4, ... per cent) before the root is polished in ln m.
+ */
+function crossing(f: (m: number) => number, lo: number, hi: number, firstStep = 0.01): number {
+  const fLo0 = f(lo);
+  if (fLo0 <= 0) return lo;
+  let uLo = Math.log(lo);
+  let fLo = fLo0;
+  const uMax = Math.log(hi);
+  let step = firstStep;
+  for (;;) {
+    const uHi = Math.min(uLo + step, uMax);
+    const fHi = f(Math.exp(uHi));
+    if (fHi <= 0) {
+      const u = bracketedRoot((v) => f(Math.exp(v)), uLo, uHi, fLo, fHi, 1e-14);
+      return Math.min(hi, Math.max(lo, Math.exp(u)));
+    }
+    if (uHi >= uMax) return hi;
+    uLo = uHi;
+    fLo = fHi;
+    step *= 2;
+  }
 }
 
 /** Mass whose main sequence ends at age t (Myr). */
 export function turnoffMass(model: EvolutionModel, tMyr: number): number {
-  return crossing((m) => tMainSequence(model, m) - tMyr, MIN_MASS, MAX_MASS);
+  return crossing((m) => tMainSequence(model, m) - tMyr, MIN_MASS, MAX_MASS, 0.5);
 }
 
 export interface EarlyBoundaries {

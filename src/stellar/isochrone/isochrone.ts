@@ -50,20 +50,30 @@ export interface IsochroneOptions {
   eta?: number;
   /** Largest magnitude step between adjacent nodes from the turnoff to the horizontal branch; 0.01. */
   maxStepMag?: number;
-  /** Largest magnitude step on the lower main sequence and the early AGB; 0.05. */
+  /** Largest magnitude step on the lower main sequence and the early AGB; 0.1. */
   maxStepMagSparse?: number;
 }
 
-/** Largest log Teff steps (dense / sparse regions): 0.002 dex is about 0.01 mag in B-V near the turnoff. */
-const MAX_STEP_LOGTEFF = 0.002;
-const MAX_STEP_LOGTEFF_SPARSE = 0.01;
+/**
+ * Largest log Teff steps (dense / sparse regions). The band limits above are what the likelihood needs; this
+ * guard keeps the colour resolved whatever bands are requested (0.005 dex is about 0.02 mag in B-V).
+ */
+const MAX_STEP_LOGTEFF = 0.005;
+const MAX_STEP_LOGTEFF_SPARSE = 0.02;
+/** The main sequence counts as "turnoff" (dense nodes) within this many dex in L of its end (1 mag). */
+const TURNOFF_DEPTH_LOGL = 0.4;
 /** Largest step in phase fraction, and near the end of the main sequence (resolves the hook). */
 const MAX_STEP_FRACTION = 0.05;
 const MAX_STEP_FRACTION_HOOK = 0.002;
 const HOOK_REGION = 0.97;
 const PHASE_GAP = 0.999;
-const MAX_ROUNDS = 8;
-const OVERSPLIT = 1.15;
+const MAX_ROUNDS = 16;
+/**
+ * Pieces per split and round, in phases whose spacing variable only roughly linearises the track (all but
+ * the giant branches): splitting a strongly curved segment evenly in one go wastes nodes where it is flat.
+ */
+const MAX_PIECES_CURVED = 4;
+const OVERSPLIT = 1.05;
 /** Seeds per interval (pieces) for the post-main-sequence phases. */
 const SEED_PIECES: Record<number, number> = {
   [Phase.HertzsprungGap]: 4,
@@ -73,9 +83,11 @@ const SEED_PIECES: Record<number, number> = {
 };
 /** Main-sequence seeds: log-uniform in mass, plus these fractions of the main-sequence lifetime. */
 const MS_SEEDS_LOG = 16;
-const MS_SEED_FRACTIONS = [0.3, 0.5, 0.8, 0.9, 0.95, 0.97, 0.98, 0.99, 0.995, 0.998, 0.999];
+const MS_SEED_FRACTIONS = [0.5, 0.8, 0.9, 0.95, 0.97, 0.98, 0.99, 0.995, 0.998, 0.999];
 
 const store = new NodeStore();
+/** Work counts of the last build, for benchmarks and tests. */
+export const lastBuildStats = { nodes: 0, exactEvaluations: 0, rounds: 0, curvePieces: [0, 0, 0, 0] };
 const evaluator = new NodeEvaluator();
 const losses = new MassLossInterpolant();
 
@@ -102,7 +114,7 @@ function evaluateInto(i: number, m0: number, phase: Phase, b: Build): boolean {
   store.spacing[i] = evaluator.spacing;
   store.phase[i] = phase;
   store.dense[i] =
-    phase === Phase.EarlyAGB ? 0 : phase !== Phase.MainSequence || evaluator.fraction >= 0.3 || evaluator.logL >= b.logLTurnoff - 0.8 ? 1 : 0;
+    phase === Phase.EarlyAGB ? 0 : phase !== Phase.MainSequence || evaluator.logL >= b.logLTurnoff - TURNOFF_DEPTH_LOGL ? 1 : 0;
   return !evaluator.dead;
 }
 
@@ -223,7 +235,8 @@ function piecesNeeded(a: number, b: number, build: Build): number {
   if (!(r > 1)) return 1;
   // Stop splitting segments that are already a negligible mass apart (a genuine jump in the model).
   if (store.m0[b] - store.m0[a] <= 1e-12 * store.m0[b]) return 1;
-  return Math.min(256, Math.ceil(r * OVERSPLIT));
+  const n = Math.ceil(r * OVERSPLIT);
+  return phase === Phase.GiantBranch || phase === Phase.EarlyAGB ? Math.min(256, n) : Math.min(MAX_PIECES_CURVED, n);
 }
 
 export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptions): Isochrone {
@@ -262,7 +275,7 @@ export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptio
     tMyr,
     feh,
     maxStep: options.maxStepMag ?? 0.01,
-    maxStepSparse: options.maxStepMagSparse ?? 0.05,
+    maxStepSparse: options.maxStepMagSparse ?? 0.1,
     logLTurnoff: Number.POSITIVE_INFINITY,
     bandIndex: bands.map((_, i) => i),
     photometry,
@@ -272,7 +285,7 @@ export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptio
   const early = earlyBoundaries(model, tMyr, eta);
   losses.build(model, eta, early.mTMS, Math.max(early.mUpper, early.mTMS * (1 + 1e-6)));
   const intervals = phaseIntervals(model, tMyr, eta, early, losses);
-  evaluator.setup(model, tMyr, eta, losses);
+  evaluator.setup(model, tMyr, eta, losses, intervals);
   store.reset(bands.length);
 
   const heads: number[] = [];
@@ -304,9 +317,13 @@ export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptio
         a = b;
       }
     }
+    lastBuildStats.rounds = round + 1;
     if (store.n === from) break;
   }
   photometryBatch(from, store.n, build);
+  lastBuildStats.nodes = store.n;
+  lastBuildStats.exactEvaluations = evaluator.exactEvaluations();
+  lastBuildStats.curvePieces = evaluator.curvePieces();
 
   return assemble(heads, logAgeYr, feh, alphaFe, eta, bands, photometry);
 }

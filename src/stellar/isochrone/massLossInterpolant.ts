@@ -26,8 +26,13 @@ const PHASE_INDEX: Record<number, number> = {
   [Phase.EarlyAGB]: 3,
 };
 
-/** Masses where the formulae that drive the winds have kinks (A_H: 1.125, 2.4242; B: 2.3877; p, q, D: 2.5). */
+/** Masses where the formulae of HPT2000 switch branch (A_H: 1.125, 2.4242; B: 2.3877; p, q, D: 2.5). */
 const FIXED_BREAKS = [1.125, (29500 / 17500) ** (1 / 0.6), 1.6 / 0.66, 2.5];
+
+/** Branch switches in initial mass, ascending: the fixed ones plus M_HeF and M_FGB of this Z. */
+export function massBreaks(model: EvolutionModel): number[] {
+  return [...FIXED_BREAKS, model.mHeF, model.mFGB].sort((a, b) => a - b);
+}
 
 class ReferenceTrack {
   m0 = 0;
@@ -75,7 +80,7 @@ export class MassLossInterpolant {
 
   /** Integrate the reference tracks over [mLo, mHi]. */
   build(model: EvolutionModel, eta: number, mLo: number, mHi: number): void {
-    const breaks = [...FIXED_BREAKS, model.mHeF, model.mFGB].filter((b) => b > mLo * (1 + 1e-9) && b < mHi * (1 - 1e-9)).sort((a, b) => a - b);
+    const breaks = massBreaks(model).filter((b) => b > mLo * (1 + 1e-9) && b < mHi * (1 - 1e-9));
     const edges = [mLo, ...breaks, mHi];
     this.pieces = 0;
     let used = 0;
@@ -83,7 +88,7 @@ export class MassLossInterpolant {
       const a = edges[s];
       const b = edges[s + 1];
       const rel = (b - a) / a;
-      const k = rel < 1e-6 ? 1 : rel < 0.02 ? 4 : rel < 0.1 ? 10 : 12;
+      const k = rel < 1e-6 ? 1 : rel < 0.005 ? 3 : rel < 0.02 ? 4 : rel < 0.1 ? 10 : 12;
       this.lo[this.pieces] = a;
       this.hi[this.pieces] = b;
       this.first[this.pieces] = used;

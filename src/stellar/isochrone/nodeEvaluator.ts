@@ -1,22 +1,28 @@
 /**
  * Evaluates one isochrone node: the star of initial mass m0 at the isochrone's age, in a phase the caller
  * already knows (from the phase boundaries, so that nodes on a boundary get the phase of their interval).
- * Results go to public fields; nothing is allocated per node.
+ * Main-sequence nodes are evaluated exactly; post-main-sequence nodes come from the phase curves
+ * (`phaseCurve.ts`), which are validated against exact evaluations. Results go to public fields; nothing
+ * is allocated per node.
  */
 import { Phase } from '../types.js';
 import { mainSequenceAt } from '../evolution/mainSequence.js';
 import { StellarTrack } from '../evolution/track.js';
 import type { EvolutionModel } from '../evolution/types.js';
-import { logTeffOf, loggOf } from '../solar.js';
-import type { MassLossInterpolant } from './massLossInterpolant.js';
+import { LOG_G_SUN, LOG_TEFF_SUN } from '../solar.js';
+import type { PhaseInterval } from './boundaries.js';
+import { massBreaks, type MassLossInterpolant } from './massLossInterpolant.js';
+import { CORE_MASS, FRACTION, LOG_L, LOG_R, MASS, PhaseCurve, SPACING, STATE_WIDTH } from './phaseCurve.js';
 
 export class NodeEvaluator {
-  model!: EvolutionModel;
-  tMyr = 0;
-  eta = 0.5;
-  losses!: MassLossInterpolant;
-  readonly track = new StellarTrack();
-  private readonly out = new Float64Array(3);
+  private model!: EvolutionModel;
+  private tMyr = 0;
+  private eta = 0.5;
+  private readonly track = new StellarTrack();
+  private readonly ms = new Float64Array(2);
+  private readonly state = new Float64Array(STATE_WIDTH);
+  /** One curve per post-main-sequence phase, indexed by Phase. */
+  private readonly curves: (PhaseCurve | null)[] = [null, null, new PhaseCurve(), new PhaseCurve(), new PhaseCurve(), new PhaseCurve(), null];
 
   // Results of the last `evaluate`.
   mass = 0;
@@ -35,53 +41,57 @@ export class NodeEvaluator {
   /** True when the envelope is exhausted (the star is a remnant and not part of the isochrone). */
   dead = false;
 
-  setup(model: EvolutionModel, tMyr: number, eta: number, losses: MassLossInterpolant): void {
+  setup(model: EvolutionModel, tMyr: number, eta: number, losses: MassLossInterpolant, intervals: readonly PhaseInterval[]): void {
     this.model = model;
     this.tMyr = tMyr;
     this.eta = eta;
-    this.losses = losses;
+    const breaks = massBreaks(model);
+    for (const iv of intervals) {
+      const curve = this.curves[iv.phase];
+      if (curve) curve.build(model, tMyr, eta, losses, iv.phase, iv.mLo, iv.mHi, breaks);
+    }
+    for (let p = 0; p < this.curves.length; p++) if (this.curves[p] && !intervals.some((iv) => iv.phase === p)) this.curves[p]!.clear();
+  }
+
+  /** Exact evaluations spent on the phase curves of the current isochrone. */
+  exactEvaluations(): number {
+    let n = 0;
+    for (const c of this.curves) if (c) n += c.evaluations;
+    return n;
+  }
+
+  /** Pieces of each phase curve (HG, GB, CHeB, EAGB) of the current isochrone. */
+  curvePieces(): number[] {
+    return this.curves.filter((c): c is PhaseCurve => c !== null).map((c) => c.pieces());
   }
 
   evaluate(m0: number, phase: Phase): void {
-    const t = this.tMyr;
-    const tr = this.track.setMass(this.model, m0, this.eta);
-    const out = this.out;
-    this.dead = false;
     if (phase === Phase.MainSequence) {
-      tr.fillMainSequence();
-      const tt = Math.min(t, tr.tMS);
-      mainSequenceAt(tr.ms, tt, out);
+      const tr = this.track.setMass(this.model, m0, this.eta).fillMainSequence();
+      const t = Math.min(this.tMyr, tr.tMS);
+      mainSequenceAt(tr.ms, t, this.ms);
       this.mass = m0;
       this.coreMass = 0;
-      this.fraction = tt / tr.tMS;
+      this.fraction = t / tr.tMS;
       this.spacing = m0;
-      this.finish(out[0], out[1]);
+      this.dead = false;
+      this.finish(this.ms[0], this.ms[1]);
       return;
     }
-    tr.fillGiant();
-    const losses = this.losses;
-    if (phase === Phase.HertzsprungGap) tr.fillGap(losses.massEndHG(m0));
-    else if (phase !== Phase.GiantBranch) tr.fillHelium(losses.massAtHeI(m0, tr.gb.hasGB));
-    const x = tr.progressAt(phase, t);
-    const mass = m0 - losses.lost(phase, m0, x);
-    this.fraction = tr.stateAt(phase, x, mass, out);
-    this.mass = mass;
-    this.coreMass = out[2];
-    this.dead = !(mass > out[2] + 1e-6);
-    if (phase === Phase.GiantBranch) this.spacing = this.timeToSingularity(tr.gb.law, 10 ** out[0], t);
-    else if (phase === Phase.EarlyAGB) this.spacing = this.timeToSingularity(tr.agb.law, 10 ** out[0], t);
-    else this.spacing = x;
-    this.finish(out[0], out[1]);
-  }
-
-  private timeToSingularity(law: { lx: number; tInf1: number; tInf2: number }, l: number, t: number): number {
-    return (l <= law.lx ? law.tInf1 : law.tInf2) - t;
+    const s = this.state;
+    this.curves[phase]!.at(m0, s);
+    this.mass = s[MASS];
+    this.coreMass = s[CORE_MASS];
+    this.fraction = s[FRACTION];
+    this.spacing = s[SPACING];
+    this.dead = !(s[MASS] > s[CORE_MASS] + 1e-6);
+    this.finish(s[LOG_L], s[LOG_R]);
   }
 
   private finish(logL: number, logR: number): void {
     this.logL = logL;
     this.logR = logR;
-    this.logTeff = logTeffOf(logL, logR);
-    this.logg = loggOf(this.mass, logR);
+    this.logTeff = LOG_TEFF_SUN + 0.25 * logL - 0.5 * logR;
+    this.logg = LOG_G_SUN + Math.log10(this.mass) - 2 * logR;
   }
 }

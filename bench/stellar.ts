@@ -1,0 +1,52 @@
+/**
+ * Built-in stellar model: build time of one isochrone in 3 bands (target <= 0.5 ms, issue 3), with two
+ * references measured in the same run: the same build with the per-Z cache cleared before each call, and
+ * builds whose [Fe/H] changes at every call (what a sampler that moves [Fe/H] without a grid would see).
+ * Until the photometric calibrations land, a stand-in photometry returns M_bol in every band; real
+ * colour-Teff relations add their own cost per node.
+ */
+import type { BandId } from '../src/core/bands.js';
+import { clearEvolutionCache } from '../src/stellar/evolution/model.js';
+import { isochrone } from '../src/stellar/isochrone/isochrone.js';
+import type { PhotometryModel } from '../src/stellar/types.js';
+import { medianMs, timeRepeated, type BenchGroup } from './harness.js';
+
+const BANDS: readonly BandId[] = ['B', 'V', 'I'];
+
+const bolometric: PhotometryModel = {
+  bands: BANDS,
+  provenance: {},
+  absoluteMagnitudes(bands, logL, _t, _g, _f, out, n) {
+    for (let b = 0; b < bands.length; b++) for (let k = 0; k < n; k++) out[b][k] = 4.74 - 2.5 * logL[k];
+  },
+};
+
+export const stellarBench: BenchGroup = {
+  name: 'stellar',
+  describe: 'built-in isochrone build time (3 bands; 12 Gyr, [Fe/H] = -1.5, and 1 Gyr solar)',
+  async run(ctx) {
+    const opts = { photometry: bolometric, bands: BANDS };
+    const logAgeOld = Math.log10(12e9);
+    // Warm up the JIT on a spread of ages and metallicities.
+    for (let i = 0; i < 60; i++) isochrone(8 + (i % 11) * 0.2, -2.2 + (i % 7) * 0.35, opts);
+    let k = 0;
+    // Age moves by 1e-6 dex per call, so that no call can be served from anything but the per-Z cache.
+    const warmOld = medianMs(timeRepeated(() => isochrone(logAgeOld + 1e-6 * k++, -1.5, opts), 101));
+    const coldOld = medianMs(
+      timeRepeated(() => {
+        clearEvolutionCache();
+        isochrone(logAgeOld + 1e-6 * k++, -1.5, opts);
+      }, 101),
+    );
+    const movingFeh = medianMs(timeRepeated(() => isochrone(logAgeOld, -1.5 + 1e-4 * (k++ % 1000), opts), 101));
+    const warmYoung = medianMs(timeRepeated(() => isochrone(9 + 1e-6 * k++, 0, opts), 101));
+    const nodesOld = isochrone(logAgeOld, -1.5, opts).massInitial.length;
+    const nodesYoung = isochrone(9, 0, opts).massInitial.length;
+    const note = 'machine shared with other jobs: timings are noisy';
+    ctx.record({ name: 'isochrone, 12 Gyr [Fe/H]=-1.5, 3 bands, median of 101', value: warmOld, unit: 'ms', target: { op: '<=', value: 0.5 }, reference: { name: 'per-Z cache cleared before each call', value: coldOld }, note });
+    ctx.record({ name: 'same, [Fe/H] different at every call', value: movingFeh, unit: 'ms', reference: { name: 'fixed [Fe/H]', value: warmOld }, note });
+    ctx.record({ name: 'isochrone, 1 Gyr [Fe/H]=0, 3 bands, median of 101', value: warmYoung, unit: 'ms', target: { op: '<=', value: 0.5 }, note });
+    ctx.record({ name: 'nodes, 12 Gyr [Fe/H]=-1.5', value: nodesOld, unit: 'nodes' });
+    ctx.record({ name: 'nodes, 1 Gyr [Fe/H]=0', value: nodesYoung, unit: 'nodes' });
+  },
+};
