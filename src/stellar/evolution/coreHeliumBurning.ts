@@ -187,6 +187,20 @@ export class CoreHeliumBurning {
     return this.rMin * Math.exp(ar * ar * ar);
   }
 
+  /**
+   * Phase fraction that marks the same point of CHeB in stars whose sub-phases last different shares of
+   * the phase: the descent along the giant branch (tau < tau_x) maps to [0, 1/3], the blue part
+   * (tau_x..tau_y) to [1/3, 2/3] and the red part after it to [2/3, 1]. Absent sub-phases leave their
+   * third unused, so a low-mass star's horizontal branch (tau_x = 0, tau_y = 1) spans [1/3, 2/3].
+   */
+  subphaseFraction(tau: number): number {
+    const tx = this.tauX;
+    const ty = Math.min(1, this.tauY);
+    if (tau < tx) return (tau / tx) / 3;
+    if (tau <= ty) return ty > tx ? (1 + (tau - tx) / (ty - tx)) / 3 : 2 / 3;
+    return (2 + (tau - ty) / (1 - ty)) / 3;
+  }
+
   coreMass(tau: number): number {
     return (1 - tau) * this.mcHeI + tau * this.mcBAGB;
   }

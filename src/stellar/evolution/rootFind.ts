@@ -3,9 +3,10 @@
  * step every fourth iteration so that the bracket always shrinks. Written by hand: it is a dozen lines, it
  * must not allocate (it runs several times per isochrone), and no standalone maintained package offers a
  * bracketed solver on plain functions. It also converges on discontinuous functions (to the jump), which
- * the phase boundaries of the evolution model need at M_FGB.
+ * the phase boundaries of the evolution model need at M_FGB. The tolerance is on the bracket's width,
+ * relative to the root, or absolute for roots of size below 1.
  */
-export function bracketedRoot(f: (x: number) => number, a: number, b: number, fa: number, fb: number, relTol = 1e-13, maxIter = 200): number {
+export function bracketedRoot(f: (x: number) => number, a: number, b: number, fa: number, fb: number, tol = 1e-13, maxIter = 200): number {
   if (fa === 0) return a;
   if (fb === 0) return b;
   if (fa * fb > 0) throw new RangeError(`bracketedRoot: no sign change on [${a}, ${b}]`);
@@ -27,7 +28,8 @@ export function bracketedRoot(f: (x: number) => number, a: number, b: number, fa
       if (side === 1) fb *= 0.5;
       side = 1;
     }
-    if (Math.abs(b - a) <= relTol * Math.abs(c)) break;
+    // Stop when the bracket is below tol relative to the root (absolute for roots below 1 in size).
+    if (Math.abs(b - a) <= tol * Math.max(1, Math.abs(c))) break;
   }
   return c;
 }

@@ -138,7 +138,8 @@ export class StellarTrack implements MassDerivative {
   /**
    * log L, log R and core mass at a post-main-sequence point (phase, progress x), for current mass
    * `mass`: out[0..2]. Returns the fraction of the phase completed, as used by the isochrone's phase
-   * coordinate (log L fraction on the giant branches, the time fraction in the gap and in CHeB).
+   * coordinate: the fraction of the rise in log L on the giant branches, the time fraction in the gap,
+   * and in CHeB the time fraction of each sub-phase (`CoreHeliumBurning.subphaseFraction`).
    */
   stateAt(phase: Phase, x: number, mass: number, out: Float64Array): number {
     const model = this.model;
@@ -167,7 +168,7 @@ export class StellarTrack implements MassDerivative {
         out[0] = Math.log10(l);
         out[1] = Math.log10(he.radius(model, x, l));
         out[2] = he.coreMass(x);
-        return x;
+        return he.subphaseFraction(x);
       }
       case Phase.EarlyAGB: {
         const agb = this.agb;

@@ -42,7 +42,7 @@ function crossing(f: (m: number) => number, lo: number, hi: number, firstStep = 
     const uHi = Math.min(uLo + step, uMax);
     const fHi = f(Math.exp(uHi));
     if (fHi <= 0) {
-      const u = bracketedRoot((v) => f(Math.exp(v)), uLo, uHi, fLo, fHi, 1e-14);
+      const u = bracketedRoot((v) => f(Math.exp(v)), uLo, uHi, fLo, fHi, 1e-11);
       return Math.min(hi, Math.max(lo, Math.exp(u)));
     }
     if (uHi >= uMax) return hi;

@@ -16,11 +16,13 @@
  *     sequence phases span a tiny range of initial mass, so nodes there are dense in mass automatically.
  *  5. Photometry is called once per round on the batch of new nodes (contiguous in the node store).
  *
- * Phase coordinate: phase + 0.999 f, where f in [0, 1] is the fraction of the phase completed: t/t_MS on
- * the main sequence, the time fraction in the Hertzsprung gap and in core helium burning, and the fraction
- * of the phase's rise in log L on the giant branch and the early AGB. It rises strictly along the
- * isochrone, and the gap of 0.001 between phases keeps the tip of the giant branch (3.999) apart from the
- * zero-age horizontal branch (4.000), which a low-mass star reaches by a jump (the helium flash).
+ * Phase coordinate: phase + 0.999 f with f in [0, 1]: on the main sequence f = (1 - tau^2) h(M) + tau^2,
+ * tau = t/t_MS, h(M) = ln(M/0.1)/ln(1000) (mass-like for unevolved stars, tau-like near the turnoff; see
+ * `mainSequenceCoordinate`); the time fraction in the Hertzsprung gap and in core helium burning; and the
+ * fraction of the phase's rise in log L on the giant branch and the early AGB. It rises strictly along the
+ * isochrone and marks the same evolutionary point at neighbouring ages and metallicities. The gap of 0.001
+ * between phases keeps the tip of the giant branch (3.999) apart from the zero-age horizontal branch
+ * (4.000), which a low-mass star reaches by a jump (the helium flash).
  */
 import type { BandId } from '../../core/bands.js';
 import { ModelError } from '../../core/errors.js';
@@ -111,6 +113,7 @@ function evaluateInto(i: number, m0: number, phase: Phase, b: Build): boolean {
   store.logTeff[i] = evaluator.logTeff;
   store.logg[i] = evaluator.logg;
   store.fraction[i] = evaluator.fraction;
+  store.coordinate[i] = evaluator.coordinate;
   store.spacing[i] = evaluator.spacing;
   store.phase[i] = phase;
   store.dense[i] =
@@ -352,7 +355,7 @@ function assemble(heads: number[], logAgeYr: number, feh: number, alphaFe: numbe
     massInitial[i] = store.m0[k];
     massCurrent[i] = store.mass[k];
     phase[i] = store.phase[k];
-    phaseCoord[i] = store.phase[k] + PHASE_GAP * Math.min(1, Math.max(0, store.fraction[k]));
+    phaseCoord[i] = store.phase[k] + PHASE_GAP * Math.min(1, Math.max(0, store.coordinate[k]));
     logL[i] = store.logL[k];
     logTeff[i] = store.logTeff[k];
     logg[i] = store.logg[k];

@@ -14,6 +14,19 @@ import type { PhaseInterval } from './boundaries.js';
 import { massBreaks, type MassLossInterpolant } from './massLossInterpolant.js';
 import { CORE_MASS, FRACTION, LOG_L, LOG_R, MASS, PhaseCurve, SPACING, STATE_WIDTH } from './phaseCurve.js';
 
+/**
+ * The main sequence's phase-coordinate fraction: f = (1 - tau^2) h(M) + tau^2 with tau = t/t_MS and
+ * h(M) = ln(M/0.1)/ln(1000). Unevolved stars (tau << 1) keep their coordinate as the isochrone ages, so
+ * interpolating between isochrones at fixed coordinate matches stars of equal mass there (whose position
+ * barely changes), while near the turnoff the coordinate follows tau, i.e. the same evolutionary point.
+ * It rises strictly with mass along an isochrone (both tau and h do, and h < 1) and reaches 1 at tau = 1.
+ */
+export function mainSequenceCoordinate(m0: number, tau: number): number {
+  const h = Math.log(m0 / 0.1) / Math.log(1000);
+  const w = tau * tau;
+  return (1 - w) * h + w;
+}
+
 export class NodeEvaluator {
   private model!: EvolutionModel;
   private tMyr = 0;
@@ -31,8 +44,10 @@ export class NodeEvaluator {
   logR = 0;
   logTeff = 0;
   logg = 0;
-  /** Fraction of the phase completed (the phase coordinate's fractional part). */
+  /** Fraction of the phase completed (t/t_MS on the main sequence). */
   fraction = 0;
+  /** The phase coordinate's fractional part (see `mainSequenceCoordinate`). */
+  coordinate = 0;
   /**
    * A variable nearly linear in m0 in which the node's magnitudes vary evenly: time to the core law's
    * singularity on the giant branches (so that geometric steps in it are even steps in log L).
@@ -73,6 +88,7 @@ export class NodeEvaluator {
       this.mass = m0;
       this.coreMass = 0;
       this.fraction = t / tr.tMS;
+      this.coordinate = mainSequenceCoordinate(m0, this.fraction);
       this.spacing = m0;
       this.dead = false;
       this.finish(this.ms[0], this.ms[1]);
@@ -83,6 +99,7 @@ export class NodeEvaluator {
     this.mass = s[MASS];
     this.coreMass = s[CORE_MASS];
     this.fraction = s[FRACTION];
+    this.coordinate = s[FRACTION];
     this.spacing = s[SPACING];
     this.dead = !(s[MASS] > s[CORE_MASS] + 1e-6);
     this.finish(s[LOG_L], s[LOG_R]);

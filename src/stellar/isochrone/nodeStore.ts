@@ -14,6 +14,7 @@ export class NodeStore {
   logTeff = new Float64Array(0);
   logg = new Float64Array(0);
   fraction = new Float64Array(0);
+  coordinate = new Float64Array(0);
   spacing = new Float64Array(0);
   phase = new Uint8Array(0);
   dense = new Uint8Array(0);
@@ -48,6 +49,7 @@ export class NodeStore {
     this.logTeff = f(this.logTeff);
     this.logg = f(this.logg);
     this.fraction = f(this.fraction);
+    this.coordinate = f(this.coordinate);
     this.spacing = f(this.spacing);
     this.mags = this.mags.map(f);
     const p = new Uint8Array(cap);
