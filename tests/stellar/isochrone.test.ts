@@ -84,6 +84,15 @@ describe('old metal-poor population (12 Gyr, [Fe/H] = -1.5)', () => {
     expect(old.massInitial[msEnd]).toBeLessThanOrEqual(0.9);
   });
 
+  it('tip of the giant branch: M_bol within 0.25 of -0.19 [Fe/H] - 3.81 for [Fe/H] = -2.0 .. -1.0 (Lee, Freedman & Madore 1993; from memory)', () => {
+    for (const feh of [-2.0, -1.5, -1.0]) {
+      const iso = isochrone(Math.log10(12e9), feh, opts);
+      let tip = 0;
+      for (const i of phaseNodes(iso, Phase.GiantBranch)) if (iso.logL[i] > iso.logL[tip]) tip = i;
+      expect(Math.abs(4.74 - 2.5 * iso.logL[tip] - (-0.19 * feh - 3.81)), `[Fe/H] = ${feh}`).toBeLessThanOrEqual(0.25);
+    }
+  });
+
   it('loses mass on the giant branch, so that horizontal-branch stars are lighter than the turnoff', () => {
     const he = phaseNodes(old, Phase.CoreHeliumBurning);
     expect(old.massCurrent[he[0]]).toBeLessThan(old.massInitial[he[0]] - 0.05);

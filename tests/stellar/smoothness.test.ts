@@ -20,6 +20,8 @@
  *    helium ignition through exp(15 (M - M_HeF)) in L_HeI (eq. 49) and the ZAHB (eq. 53);
  *  - the horizontal branch (CHeB below M_HeF), whose luminosity and radius depend steeply on the envelope
  *    mass left by giant-branch winds through mu in eqs. (53)-(54);
+ *  - the blue loops of intermediate-mass stars (the blue third of CHeB between M_HeF and M_FGB), whose
+ *    extent follows R_mHe (eq. 55) and whose duration tau_bl (eq. 58) changes quickly with mass;
  *  - early AGB of stars with Mc,BAGB within 0.1 of 1.6 Msun, where the phase's end switches from the first
  *    thermal pulse to carbon ignition (section 5.4);
  *  - log Teff beyond Z = 0.03, where b2 and b3 of R_GB (Appendix: 9329.21 Z^2.94, 14265.1 Z^3.395) are
@@ -62,6 +64,8 @@ function steepWindow(iso: Isochrone, k: number, Z: number): string {
   if ((p === Phase.MainSequence || p === Phase.HertzsprungGap) && m >= a[17] - 0.05 && m <= a[17] + 0.15) return 'R_TMS blend (eq. 9)';
   if ((p === Phase.GiantBranch || p === Phase.CoreHeliumBurning) && m >= model.mHeF - 0.25 && m <= model.mHeF + 0.1) return 'helium-ignition switch (eq. 49)';
   if (p === Phase.CoreHeliumBurning && m < model.mHeF) return 'horizontal branch (eqs. 53-54)';
+  const f = (iso.phaseCoord[k] - p) / 0.999;
+  if (p === Phase.CoreHeliumBurning && m < model.mFGB && f > 1 / 3 - 1e-9 && f < 2 / 3 + 1e-9) return 'blue loop (eqs. 55, 58)';
   if (p === Phase.EarlyAGB && Math.abs(coreMassBAGB(model, m) - 1.6) <= 0.1) return 'Mc,BAGB = 1.6 switch (section 5.4)';
   return '';
 }
@@ -116,7 +120,7 @@ function allFinite(iso: Isochrone): boolean {
 
 describe('smoothness in age and [Fe/H] at fixed phase coordinate', () => {
   const rng = mt19937.factory({ seed: 20240311 });
-  const u = (): number => rng.normalized();
+  const u = (): number => rng() / (rng.MAX + 1);
   const points: [number, number][] = [
     [AGE[0], FEH[0]],
     [AGE[0], FEH[1]],
