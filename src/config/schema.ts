@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
+import { samplerSection } from './sections/sampler.js';
+import { priorsSection } from './sections/priors.js';
 
 /**
  * The whole config: one key per section. To add a section (model, priors, sampler, ...), write
@@ -13,6 +15,8 @@ export const configSchema = z.strictObject({
   catalogue: catalogueSection,
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
+  sampler: samplerSection.prefault({}),
+  priors: priorsSection.optional(),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;
