@@ -88,11 +88,4 @@ export class EarlyAGB {
     this.tEnd = law.timeAtLuminosity(this.lEnd);
     return this;
   }
-
-  /** CO core mass and luminosity at age t in [t_BAGB, t_end]: out[0] = L, out[1] = Mc,CO. */
-  at(t: number, out: Float64Array): void {
-    const mc = this.law.coreMassAt(t);
-    out[0] = this.law.luminosity(mc);
-    out[1] = mc;
-  }
 }

@@ -104,17 +104,4 @@ export class GiantBranch {
     }
     return this;
   }
-
-  /** Luminosity core mass and physical core mass at age t in [t_BGB, t_HeI]: out[0] = L, out[1] = Mc. */
-  at(t: number, out: Float64Array): void {
-    const mcL = this.law.coreMassAt(t);
-    out[0] = this.law.luminosity(mcL);
-    if (this.mcBase === this.mcLBase) out[1] = mcL;
-    else {
-      // M >= M_HeF: the core grows linearly in time between its base and ignition values (eq. 45).
-      const span = this.tHeI - this.tBGB;
-      const tau = span > 0 ? (t - this.tBGB) / span : 1;
-      out[1] = this.mcBase + (this.mcTip - this.mcBase) * tau;
-    }
-  }
 }

@@ -155,6 +155,7 @@ export class StellarTrack implements MassDerivative {
         out[1] = Math.log10(rGB(model, mass, l));
         if (this.m0 < model.mHeF) out[2] = mcL;
         else {
+          // Above M_HeF the core grows linearly in time from Mc,BGB to Mc,HeI (HPT2000 section 5.3).
           const span = this.tHeI - this.tBGB;
           const tau = span > 0 ? (gb.law.timeAtLuminosity(l) - this.tBGB) / span : 1;
           out[2] = gb.mcBase + (gb.mcTip - gb.mcBase) * tau;

@@ -33,7 +33,7 @@ import { evolutionModel, Z_MAX_ACCEPTED, Z_RANGE } from '../evolution/model.js';
 import { tMainSequence } from '../evolution/mainSequence.js';
 import { bracketedRoot } from '../evolution/rootFind.js';
 import type { EvolutionModel } from '../evolution/types.js';
-import { earlyBoundaries, MIN_MASS, phaseIntervals, type PhaseInterval } from './boundaries.js';
+import { earlyBoundaries, phaseIntervals, type PhaseInterval } from './boundaries.js';
 import { MassLossInterpolant } from './massLossInterpolant.js';
 import { NodeEvaluator } from './nodeEvaluator.js';
 import { NodeStore } from './nodeStore.js';
@@ -377,4 +377,3 @@ function assemble(heads: number[], logAgeYr: number, feh: number, alphaFe: numbe
   };
 }
 
-export { MIN_MASS };
