@@ -1,7 +1,9 @@
 /**
  * Smoothness of the built-in isochrones in age and metallicity (issue 3, property test). Over
  * 8.0 <= log age <= 10.15 and -2.3 <= [Fe/H] <= +0.2: no NaN anywhere, and at a fixed phase coordinate no
- * quantity changes by more than 0.05 mag between isochrones 0.01 dex apart in age or in [Fe/H]. Until the
+ * quantity changes by more than 0.05 mag between isochrones 0.01 dex apart in age or in [Fe/H]. Every
+ * isochrone built here is also checked for order (mass and phase never decrease, the phase coordinate rises
+ * strictly) and for node spacing (<= 0.01 mag from 1 mag below the turnoff through CHeB). Until the
  * photometric calibrations land, the quantities are M_bol (limit 0.05 mag) and log Teff, whose limit is
  * the log Teff step that moves B-V of a G-K star by 0.05 mag: the colour-Teff slope between the Sun
  * (B-V = 0.65 at 5772 K) and a K giant (B-V = 1.15 near 4500 K) is about 4.6 mag/dex (common practice), so
@@ -20,8 +22,8 @@
  *    helium ignition through exp(15 (M - M_HeF)) in L_HeI (eq. 49) and the ZAHB (eq. 53);
  *  - the horizontal branch (CHeB below M_HeF), whose luminosity and radius depend steeply on the envelope
  *    mass left by giant-branch winds through mu in eqs. (53)-(54);
- *  - the blue loops of intermediate-mass stars (the blue third of CHeB between M_HeF and M_FGB), whose
- *    extent follows R_mHe (eq. 55) and whose duration tau_bl (eq. 58) changes quickly with mass;
+ *  - core helium burning between M_HeF and M_FGB, whose blue loop starts at tau_x = 1 - tau_bl (eq. 58),
+ *    a share of the phase that changes quickly with mass, and reaches out to R_mHe (eq. 55);
  *  - early AGB of stars with Mc,BAGB within 0.1 of 1.6 Msun, where the phase's end switches from the first
  *    thermal pulse to carbon ignition (section 5.4);
  *  - log Teff beyond Z = 0.03, where b2 and b3 of R_GB (Appendix: 9329.21 Z^2.94, 14265.1 Z^3.395) are
@@ -64,8 +66,7 @@ function steepWindow(iso: Isochrone, k: number, Z: number): string {
   if ((p === Phase.MainSequence || p === Phase.HertzsprungGap) && m >= a[17] - 0.05 && m <= a[17] + 0.15) return 'R_TMS blend (eq. 9)';
   if ((p === Phase.GiantBranch || p === Phase.CoreHeliumBurning) && m >= model.mHeF - 0.25 && m <= model.mHeF + 0.1) return 'helium-ignition switch (eq. 49)';
   if (p === Phase.CoreHeliumBurning && m < model.mHeF) return 'horizontal branch (eqs. 53-54)';
-  const f = (iso.phaseCoord[k] - p) / 0.999;
-  if (p === Phase.CoreHeliumBurning && m < model.mFGB && f > 1 / 3 - 1e-9 && f < 2 / 3 + 1e-9) return 'blue loop (eqs. 55, 58)';
+  if (p === Phase.CoreHeliumBurning && m < model.mFGB) return 'blue loop (eqs. 55, 58)';
   if (p === Phase.EarlyAGB && Math.abs(coreMassBAGB(model, m) - 1.6) <= 0.1) return 'Mc,BAGB = 1.6 switch (section 5.4)';
   return '';
 }
@@ -111,6 +112,29 @@ function compare(a: Isochrone, b: Isochrone, label: string, strict: Worst, windo
   return compared;
 }
 
+/** Ordering: initial mass and phase never decrease, the phase coordinate rises strictly. */
+function ordered(iso: Isochrone): boolean {
+  for (let i = 1; i < iso.phase.length; i++) {
+    if (!(iso.massInitial[i] >= iso.massInitial[i - 1] && iso.phase[i] >= iso.phase[i - 1] && iso.phaseCoord[i] > iso.phaseCoord[i - 1])) return false;
+  }
+  return true;
+}
+
+/** Largest M_bol step between adjacent nodes of one phase from 1 mag below the turnoff through CHeB. */
+function largestDenseStep(iso: Isochrone): number {
+  let msEnd = 0;
+  for (let i = 0; i < iso.phase.length; i++) if (iso.phase[i] === Phase.MainSequence) msEnd = i;
+  const mbolTO = 4.74 - 2.5 * iso.logL[msEnd];
+  let worst = 0;
+  for (let i = 1; i < iso.phase.length; i++) {
+    const p = iso.phase[i];
+    if (iso.phase[i - 1] !== p || p === Phase.EarlyAGB) continue;
+    if (p === Phase.MainSequence && 4.74 - 2.5 * iso.logL[i] > mbolTO + 1) continue;
+    worst = Math.max(worst, Math.abs(iso.absMag[0][i] - iso.absMag[0][i - 1]));
+  }
+  return worst;
+}
+
 function allFinite(iso: Isochrone): boolean {
   for (const arr of [iso.massInitial, iso.massCurrent, iso.phaseCoord, iso.logL, iso.logTeff, iso.logg, ...iso.absMag]) {
     for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) return false;
@@ -139,7 +163,12 @@ describe('smoothness in age and [Fe/H] at fixed phase coordinate', () => {
       const base = isochrone(age, feh, opts);
       const older = isochrone(age + dAge, feh, opts);
       const richer = isochrone(age, feh + dFeh, opts);
-      for (const iso of [base, older, richer]) expect(allFinite(iso), `NaN at log age ${iso.logAgeYr}, [Fe/H] ${iso.feh}`).toBe(true);
+      for (const iso of [base, older, richer]) {
+        const at = `log age ${iso.logAgeYr}, [Fe/H] ${iso.feh}`;
+        expect(allFinite(iso), `NaN at ${at}`).toBe(true);
+        expect(ordered(iso), `order at ${at}`).toBe(true);
+        expect(largestDenseStep(iso), `node spacing at ${at}`).toBeLessThanOrEqual(0.01);
+      }
       compared += compare(base, older, `log age ${age.toFixed(3)} -> ${(age + dAge).toFixed(3)}, [Fe/H] ${feh.toFixed(3)}`, strict, windows);
       compared += compare(base, richer, `[Fe/H] ${feh.toFixed(3)} -> ${(feh + dFeh).toFixed(3)}, log age ${age.toFixed(3)}`, strict, windows);
     }

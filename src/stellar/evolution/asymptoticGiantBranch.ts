@@ -76,12 +76,12 @@ export class EarlyAGB {
   tEnd = 0;
   readonly law = new CoreLaw();
 
-  /** mHe: the mass that sets the core law (the star's mass at helium ignition for low-mass stars). */
-  fill(model: EvolutionModel, mHe: number, tBAGB: number, lBAGB: number, mcBAGB: number): this {
+  /** m: the mass that sets the core law's p, q, B and D (eq. 38): the initial mass. */
+  fill(model: EvolutionModel, m: number, tBAGB: number, lBAGB: number, mcBAGB: number): this {
     this.tBAGB = tBAGB;
     this.lBAGB = lBAGB;
     this.mcHe = mcBAGB;
-    const law = this.law.setMass(model, mHe).start(A_HE, tBAGB, lBAGB);
+    const law = this.law.setMass(model, m).start(A_HE, tBAGB, lBAGB);
     this.mcCOStart = law.coreMass(lBAGB);
     this.mcCOEnd = Math.max(this.mcCOStart, coreMassEndEAGB(mcBAGB));
     this.lEnd = law.luminosity(this.mcCOEnd);

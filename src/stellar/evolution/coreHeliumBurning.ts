@@ -6,9 +6,12 @@
  * minimum radius eq. (55), and the core grows linearly from Mc,HeI to Mc,BAGB (eq. 67). The L and R paths
  * through the phase are the piecewise forms of section 5.3 (L_x, R_x, tau_x, tau_y, xi and rho).
  *
- * Masses: `m0` (initial mass) selects the branch and enters the intermediate- and high-mass formulae;
- * `mHe` is the mass at helium ignition, which sets the envelope-dependent low-mass formulae (ZAHB, lifetime,
- * L_BAGB) and all radii of the phase. Giant-branch mass loss therefore moves the horizontal branch.
+ * Masses: `m0` (initial mass) selects the branch and enters every formula the paper makes continuous at
+ * M_HeF through a factor exp(15 (M - M_HeF)) (eqs. 53, 56, 57) or M/M_HeF (eq. 55), and the end of the
+ * phase (L_BAGB, Mc,BAGB). `mHe`, the mass at helium ignition, sets the envelope fraction
+ * mu = (M - Mc)/(M_HeF - Mc) of the horizontal branch (eqs. 53, 54, 57) and all radii of the phase, so that
+ * giant-branch mass loss moves the horizontal branch. (With mu from mHe the zero-age horizontal branch meets
+ * L_min,He at M_HeF only to within a per cent, since mu < 1 there once mass has been lost.)
  */
 import { pow, powLn } from './fastMath.js';
 import { coreMassBAGB, lBAGB, rAGB } from './asymptoticGiantBranch.js';
@@ -26,15 +29,15 @@ function envelopeMu(model: EvolutionModel, m: number, mc: number): number {
   return Math.max((m - mc) / (model.mHeF - mc), 1e-12);
 }
 
-/** Zero-age horizontal-branch luminosity (eq. 53). */
-export function lZAHB(model: EvolutionModel, m: number, mc: number): number {
+/** Zero-age horizontal-branch luminosity (eq. 53): mu from the envelope mass mEnv, continuity factor from m0. */
+export function lZAHB(model: EvolutionModel, mEnv: number, m0: number, mc: number): number {
   const b = model.coef.b;
   const lzhe = lZHe(mc);
   const lm = model.derived.lMinHeAtHeF;
   const alpha2 = (b[18] + lzhe - lm) / (lm - lzhe);
-  const mu = envelopeMu(model, m, mc);
+  const mu = envelopeMu(model, mEnv, mc);
   const lnmu = Math.log(mu);
-  return lzhe + (((1 + b[20]) / (1 + b[20] * powLn(lnmu, ZAHB_EXPONENT))) * b[18] * powLn(lnmu, b[19])) / (1 + alpha2 * Math.exp(15 * (m - model.mHeF)));
+  return lzhe + (((1 + b[20]) / (1 + b[20] * powLn(lnmu, ZAHB_EXPONENT))) * b[18] * powLn(lnmu, b[19])) / (1 + alpha2 * Math.exp(15 * (m0 - model.mHeF)));
 }
 
 /** Zero-age horizontal-branch radius (eq. 54). */
@@ -127,15 +130,14 @@ export class CoreHeliumBurning {
     this.lHeI = lHeIv;
     this.mcHeI = mcHeI;
     this.mR = mHe;
-    const mF = lowMass ? mHe : m0;
-    this.mcBAGB = coreMassBAGB(model, mF);
-    this.lBAGB = lBAGB(model, mF);
+    this.mcBAGB = coreMassBAGB(model, m0);
+    this.lBAGB = lBAGB(model, m0);
     if (lowMass) {
       const mu1 = Math.max((model.mHeF - mHe) / (model.mHeF - mcHeI), 1e-12);
-      this.tHe = (b[39] + (tHeMS(mcHeI) - b[39]) * pow(mu1, b[40])) * (1 + model.derived.alpha4 * Math.exp(15 * (mHe - model.mHeF)));
-      this.lZAHB = lZAHB(model, mHe, mcHeI);
+      this.tHe = (b[39] + (tHeMS(mcHeI) - b[39]) * pow(mu1, b[40])) * (1 + model.derived.alpha4 * Math.exp(15 * (m0 - model.mHeF)));
+      this.lZAHB = lZAHB(model, mHe, m0, mcHeI);
       this.rZAHB = rZAHB(model, mHe, mcHeI, this.lZAHB);
-      this.rMinHe = rGB(model, mHe, this.lZAHB) * pow(model.derived.rMinHeRatioLM, mHe / model.mHeF);
+      this.rMinHe = rGB(model, mHe, this.lZAHB) * pow(model.derived.rMinHeRatioLM, m0 / model.mHeF);
       this.tauBL = 1;
       this.tauX = 0;
       this.lx = this.lZAHB;
@@ -185,20 +187,6 @@ export class CoreHeliumBurning {
     const rho = this.rhoY * f - this.rhoX * (1 - f);
     const ar = Math.abs(rho);
     return this.rMin * Math.exp(ar * ar * ar);
-  }
-
-  /**
-   * Phase fraction that marks the same point of CHeB in stars whose sub-phases last different shares of
-   * the phase: the descent along the giant branch (tau < tau_x) maps to [0, 1/3], the blue part
-   * (tau_x..tau_y) to [1/3, 2/3] and the red part after it to [2/3, 1]. Absent sub-phases leave their
-   * third unused, so a low-mass star's horizontal branch (tau_x = 0, tau_y = 1) spans [1/3, 2/3].
-   */
-  subphaseFraction(tau: number): number {
-    const tx = this.tauX;
-    const ty = Math.min(1, this.tauY);
-    if (tau < tx) return (tau / tx) / 3;
-    if (tau <= ty) return ty > tx ? (1 + (tau - tx) / (ty - tx)) / 3 : 2 / 3;
-    return (2 + (tau - ty) / (1 - ty)) / 3;
   }
 
   coreMass(tau: number): number {

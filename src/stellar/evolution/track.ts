@@ -6,8 +6,8 @@
  * Mass bookkeeping. The main sequence loses no mass (HPT2000 apply winds there only above 4000 Lsun,
  * i.e. to stars more massive than the isochrone domain needs; see the caveats). From the Hertzsprung gap
  * on, the mass follows the winds of `massLoss.ts`. Radii on the giant branches use the current mass, as
- * the paper prescribes; the core-helium-burning phase of a low-mass star is set by its mass at helium
- * ignition (`mHeI`), which is how giant-branch mass loss moves the horizontal branch.
+ * the paper prescribes; the envelope of a low-mass core-helium-burning star is its mass at helium ignition
+ * (`mHeI`), which is how giant-branch mass loss moves the horizontal branch (see `coreHeliumBurning.ts`).
  */
 import { exp10, pow } from './fastMath.js';
 import { Phase } from '../types.js';
@@ -97,8 +97,7 @@ export class StellarTrack implements MassDerivative {
     const rHeI = gb.hasGB ? rGB(model, mHeI, gb.lHeI) : rHeIHighMass(model, m0, mHeI, gb.lHeI);
     this.he.fill(model, m0, mHeI, this.tBGB, this.tHeI, gb.lHeI, gb.mcTip, rHeI);
     this.tBAGB = this.tHeI + this.he.tHe;
-    const mF = m0 < model.mHeF ? mHeI : m0;
-    this.agb.fill(model, mF, this.tBAGB, this.he.lBAGB, this.he.mcBAGB);
+    this.agb.fill(model, m0, this.tBAGB, this.he.lBAGB, this.he.mcBAGB);
     this.tEnd = this.agb.tEnd;
     return this;
   }
@@ -138,8 +137,8 @@ export class StellarTrack implements MassDerivative {
   /**
    * log L, log R and core mass at a post-main-sequence point (phase, progress x), for current mass
    * `mass`: out[0..2]. Returns the fraction of the phase completed, as used by the isochrone's phase
-   * coordinate: the fraction of the rise in log L on the giant branches, the time fraction in the gap,
-   * and in CHeB the time fraction of each sub-phase (`CoreHeliumBurning.subphaseFraction`).
+   * coordinate: the fraction of the rise in log L on the giant branches, and the time fraction in the gap
+   * and in CHeB (which, unlike a fraction of each sub-phase, rises strictly with mass along an isochrone).
    */
   stateAt(phase: Phase, x: number, mass: number, out: Float64Array): number {
     const model = this.model;
@@ -169,7 +168,7 @@ export class StellarTrack implements MassDerivative {
         out[0] = Math.log10(l);
         out[1] = Math.log10(he.radius(model, x, l));
         out[2] = he.coreMass(x);
-        return he.subphaseFraction(x);
+        return x;
       }
       case Phase.EarlyAGB: {
         const agb = this.agb;

@@ -20,7 +20,8 @@
  * tau = t/t_MS, h(M) = ln(M/0.1)/ln(1000) (mass-like for unevolved stars, tau-like near the turnoff; see
  * `mainSequenceCoordinate`); the time fraction in the Hertzsprung gap and in core helium burning; and the
  * fraction of the phase's rise in log L on the giant branch and the early AGB. It rises strictly along the
- * isochrone and marks the same evolutionary point at neighbouring ages and metallicities. The gap of 0.001
+ * isochrone (each of these rises with initial mass at fixed age) and marks the same evolutionary point at
+ * neighbouring ages and metallicities. The gap of 0.001
  * between phases keeps the tip of the giant branch (3.999) apart from the zero-age horizontal branch
  * (4.000), which a low-mass star reaches by a jump (the helium flash).
  */
@@ -62,8 +63,11 @@ export interface IsochroneOptions {
  */
 const MAX_STEP_LOGTEFF = 0.005;
 const MAX_STEP_LOGTEFF_SPARSE = 0.02;
-/** The main sequence counts as "turnoff" (dense nodes) within this many dex in L of its end (1 mag). */
-const TURNOFF_DEPTH_LOGL = 0.4;
+/**
+ * The main sequence counts as "turnoff" (dense nodes) within this many dex in L of its end: 1 mag, plus a
+ * margin so that the whole magnitude below the turnoff is dense wherever the turnoff is measured from.
+ */
+const TURNOFF_DEPTH_LOGL = 0.45;
 /** Largest step in phase fraction, and near the end of the main sequence (resolves the hook). */
 const MAX_STEP_FRACTION = 0.05;
 const MAX_STEP_FRACTION_HOOK = 0.002;
