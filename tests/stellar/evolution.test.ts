@@ -56,6 +56,25 @@ describe('evolveStar', () => {
     expect(() => evolveStar(1, 0.05, 100)).toThrow(RangeError);
   });
 
+  it('gives finite states and ordered phase ends from 0.1 to 100 Msun and Z = 1e-4 to 0.03 (robustness)', () => {
+    let checked = 0;
+    for (const Z of [1e-4, 1e-3, 0.004, 0.02, 0.03]) {
+      for (let lm = -1; lm <= 2 + 1e-9; lm += 0.1) {
+        const m = Math.min(100, 10 ** lm);
+        const e = phaseEnds(m, Z, { steps: 16 });
+        expect(e.tMS <= e.tBGB && e.tBGB <= e.tHeI && e.tHeI <= e.tBAGB && e.tBAGB <= e.tEnd, `ends of ${m} Msun at Z = ${Z}`).toBe(true);
+        for (const t of [0.5 * e.tMS, 0.5 * (e.tMS + e.tBGB), 0.5 * (e.tBGB + e.tHeI), 0.5 * (e.tHeI + e.tBAGB), 0.5 * (e.tBAGB + e.tEnd)]) {
+          const st = evolveStar(m, Z, t, { steps: 16 });
+          if (!st) continue;
+          checked++;
+          for (const v of [st.logL, st.logR, st.logTeff, st.logg, st.mass, st.coreMass]) expect(Number.isFinite(v), `${m} Msun, Z = ${Z}, t = ${t}`).toBe(true);
+          expect(st.mass).toBeGreaterThan(st.coreMass);
+        }
+      }
+    }
+    expect(checked).toBeGreaterThan(600);
+  });
+
   it('walks a 1 Msun star through every modelled phase in order, losing mass only after the main sequence', () => {
     const e = phaseEnds(1, 0.02);
     const ages = [0.5 * e.tMS, 0.5 * (e.tMS + e.tBGB), 0.5 * (e.tBGB + e.tHeI), 0.5 * (e.tHeI + e.tBAGB), 0.5 * (e.tBAGB + e.tEnd)];
