@@ -38,13 +38,14 @@ import { earlyBoundaries, phaseIntervals, type PhaseInterval } from './boundarie
 import { MassLossInterpolant } from './massLossInterpolant.js';
 import { NodeEvaluator } from './nodeEvaluator.js';
 import { NodeStore } from './nodeStore.js';
+import { builtinPhotometry } from '../photometry/index.js';
 import { builtinProvenance } from './provenance.js';
 
 export const LOG_AGE_RANGE: readonly [number, number] = [8.0, 10.15];
 
 export interface IsochroneOptions {
-  /** Turns (log L, log Teff, log g, [Fe/H]) into absolute magnitudes. */
-  photometry: PhotometryModel;
+  /** Turns (log L, log Teff, log g, [Fe/H]) into absolute magnitudes; the built-in calibration by default. */
+  photometry?: PhotometryModel;
   /** Bands to compute (each must be one of `photometry.bands`). */
   bands: readonly BandId[];
   /** [alpha/Fe] for the [Fe/H] -> [M/H] conversion (Salaris et al. 1993); 0 by default. */
@@ -250,7 +251,7 @@ export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptio
   const alphaFe = options.alphaFe ?? 0;
   const eta = options.eta ?? DEFAULT_REIMERS_ETA;
   const bands = options.bands;
-  const photometry = options.photometry;
+  const photometry = options.photometry ?? builtinPhotometry();
   if (!(logAgeYr >= LOG_AGE_RANGE[0] && logAgeYr <= LOG_AGE_RANGE[1])) {
     throw new ModelError(`log10(age/yr) = ${logAgeYr} is outside the built-in model's range`, {
       found: logAgeYr,

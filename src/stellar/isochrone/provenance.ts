@@ -5,6 +5,7 @@
 import type { ModelProvenance, PhotometryModel } from '../types.js';
 import { DEFAULT_REIMERS_ETA } from '../evolution/massLoss.js';
 import { MODEL_SOLAR_Z } from '../evolution/metallicity.js';
+import { builtinPhotometry, PHOTOMETRY_CAVEATS } from '../photometry/index.js';
 
 export const EVOLUTION_SOURCE =
   'Hurley, Pols & Tout 2000, MNRAS 315, 543 (analytic fits to the Pols et al. 1998 tracks), with the ZAMS of Tout et al. 1996, MNRAS 281, 257';
@@ -26,13 +27,15 @@ export function builtinCaveats(alphaFe: number, eta: number = DEFAULT_REIMERS_ET
   ];
 }
 
+/** The built-in model's provenance; with the built-in photometry, its caveats are appended. */
 export function builtinProvenance(alphaFe: number, photometry: PhotometryModel, eta: number = DEFAULT_REIMERS_ETA): ModelProvenance {
+  const builtin = photometry === builtinPhotometry();
   return {
-    model: 'coeval built-in (Hurley, Pols & Tout 2000 evolution)',
+    model: builtin ? 'coeval built-in (Hurley, Pols & Tout 2000 evolution; built-in photometric calibration)' : 'coeval built-in (Hurley, Pols & Tout 2000 evolution)',
     evolution: EVOLUTION_SOURCE,
     solarZ: MODEL_SOLAR_Z,
     alphaFe,
     bands: { ...photometry.provenance },
-    caveats: builtinCaveats(alphaFe, eta),
+    caveats: [...builtinCaveats(alphaFe, eta), ...(builtin ? PHOTOMETRY_CAVEATS : [])],
   };
 }
