@@ -54,7 +54,7 @@ export async function runGridCommand(a: GridCommandArgs, info: (m: string) => vo
   const bad = bands.find((b) => !isBandId(b));
   if (bad !== undefined) throw new UsageError(`unknown band "${bad}" in --bands`, { hint: 'bands: U, B, V, R, I, G, BP, RP, J, H, Ks' });
   const { builtinIsochroneSource } = await import('./builtinModel.js');
-  const source = await builtinIsochroneSource(bands as BandId[], a.alphaFe);
+  const source = builtinIsochroneSource(bands as BandId[], a.alphaFe);
   info(`coeval grid build: ${ages.length} ages x ${fehs.length} metallicities from ${source.provenance.model}`);
   const grid = g.buildGrid(source, ages, fehs, bands as BandId[]);
   g.writeGridArrow(grid, out);
