@@ -10,7 +10,7 @@ import { ConfigError } from '../core/errors.js';
 import type { GridConfig } from '../config/index.js';
 import { GRID_PHASE_NAMES } from '../config/index.js';
 import { Phase } from '../stellar/types.js';
-import type { GridImportSpec, GridTable } from '../stellar/grid/index.js';
+import type { GridImportSpec, GridSource, GridTable } from '../stellar/grid/index.js';
 
 const PHASE_OF: Record<(typeof GRID_PHASE_NAMES)[number], Phase> = {
   main_sequence: Phase.MainSequence,
@@ -103,4 +103,17 @@ export async function loadConfiguredGrid(g: GridConfig, baseDir: string): Promis
   }
   const warnings = assertGridValid(validateGrid(grid), 'the isochrone grid has a problem').map((p) => p.message);
   return { grid, origin, warnings };
+}
+
+/**
+ * The `[grid]` section as an IsochroneSource, from plain arguments (the parsed section and the config's
+ * folder), so that a worker thread can build its own from a module reference:
+ * { modulePath: <dist>/src/pipeline/gridModel.js, exportName: 'gridSourceFromConfig', args: [section, baseDir] }.
+ * With `cache` this opens the Arrow file; with `files` every caller imports the tables again, so a fit
+ * should import once (`coeval grid import`) and name the cache.
+ */
+export async function gridSourceFromConfig(g: GridConfig, baseDir: string): Promise<GridSource> {
+  const { GridSource } = await import('../stellar/grid/index.js');
+  const { grid } = await loadConfiguredGrid(g, baseDir);
+  return new GridSource(grid);
 }

@@ -2,4 +2,4 @@ export { catalogueStep, CHECK_STEPS, checkConfig, configStep, type CheckContext,
 export { summarizeCatalogue, type BandSummary, type CatalogueSummary } from './catalogueSummary.js';
 export { formatCheckReport } from './formatCheckReport.js';
 export { gridStep, type GridCheck } from './gridCheck.js';
-export { gridImportSpec, loadConfiguredGrid, type LoadedGrid } from './gridModel.js';
+export { gridImportSpec, gridSourceFromConfig, loadConfiguredGrid, type LoadedGrid } from './gridModel.js';

@@ -17,7 +17,7 @@ export const gridCommand: CommandSpec = {
       .option('out', { alias: 'o', type: 'string', describe: 'import/build: the Arrow cache to write (default grid.arrow)' })
       .option('overwrite', { type: 'boolean', default: false, describe: 'replace an existing output file' })
       .option('ages', { type: 'string', describe: 'build: log ages, as a list (9.0,9.05) or start:stop:step (8.5:10.1:0.05)' })
-      .option('feh', { type: 'string', describe: 'build: [Fe/H] values, as a list or start:stop:step' })
+      .option('feh', { type: 'string', describe: 'build: [Fe/H] values, as a list or start:stop:step (write --feh=-2:0:0.25 when the first is negative)' })
       .option('bands', { type: 'string', default: 'B,V,I', describe: 'build: bands, comma-separated' })
       .option('alpha-fe', { type: 'number', default: 0, describe: 'build: [alpha/Fe] of the mixture' })
       .option('text', { type: 'string', describe: 'build: also write the grid in the stacked-text layout to this file' }),
