@@ -154,3 +154,80 @@ print(json.dumps(out))`;
     });
   });
 });
+
+describe('grids whose isochrones cover different phases', () => {
+  // One node's isochrone stops before the horizontal branch (an EEP table that ends earlier there).
+  function unevenGrid(): GridTable {
+    const g = eepGrid();
+    const k = g.isochrones.findIndex((i) => i.logAgeYr === 9.1 && i.feh === -0.75);
+    const keep = g.isochrones[k].count - 20;
+    const drop = new Set(Array.from({ length: 20 }, (_, i) => g.isochrones[k].start + keep + i));
+    const rows = Array.from({ length: g.nRows }, (_, r) => r).filter((r) => !drop.has(r));
+    const pick = (a: Float64Array) => Float64Array.from(rows, (r) => a[r]);
+    let start = 0;
+    const isochrones = g.isochrones.map((iso, j) => {
+      const count = j === k ? keep : iso.count;
+      const out = { ...iso, start, count };
+      start += count;
+      return out;
+    });
+    return {
+      ...g,
+      nRows: rows.length,
+      massInitial: pick(g.massInitial),
+      massCurrent: pick(g.massCurrent),
+      phaseValue: pick(g.phaseValue!),
+      logTeff: pick(g.logTeff),
+      logg: pick(g.logg),
+      logL: pick(g.logL),
+      mag: g.mag.map(pick),
+      rowSource: Int32Array.from(rows, (r) => g.rowSource[r]),
+      rowLine: Int32Array.from(rows, (r) => g.rowLine[r]),
+      isochrones,
+    };
+  }
+
+  it('is exact at the short node, continuous next to it, and spans the weighted extent between', () => {
+    const g = unevenGrid();
+    const src = new GridSource(g);
+    const node = src.isochrone(9.1, -0.75, { bands: ['V'] })!;
+    const info = g.isochrones.find((i) => i.logAgeYr === 9.1 && i.feh === -0.75)!;
+    expect(Array.from(node.absMag[0])).toEqual(Array.from(g.mag[1].subarray(info.start, info.start + info.count)));
+    const near = src.isochrone(9.1 - 1e-7, -0.75, { bands: ['V'] })!;
+    // The far end moves with the weights: by (1e-7 / 0.05) of the other node's extra extent.
+    const extra = src.isochrone(9.05, -0.75, { bands: ['V'] })!.phaseCoord.at(-1)! - node.phaseCoord.at(-1)!;
+    expect(near.phaseCoord.at(-1)! - node.phaseCoord.at(-1)!).toBeCloseTo((1e-7 / 0.05) * extra, 12);
+    expect(Math.abs(near.absMag[0].at(-1)! - node.absMag[0].at(-1)!)).toBeLessThan(1e-4);
+    const mid = src.isochrone(9.075, -0.75, { bands: ['V'] })!;
+    for (let k = 1; k < mid.massInitial.length; k++) expect(mid.massInitial[k]).toBeGreaterThanOrEqual(mid.massInitial[k - 1]);
+  });
+});
+
+describe('stage-labelled grids', () => {
+  it('interpolates the hand-made fixture between its ages, keeping the stages in order', async () => {
+    const { loadGridMap } = await import('../../../src/config/index.js');
+    const { gridImportSpec } = await import('../../../src/pipeline/gridModel.js');
+    const { importGrid } = await import('../../../src/stellar/grid/index.js');
+    const { resolve, join } = await import('node:path');
+    const { mkdtempSync, readFileSync, writeFileSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const fix = resolve(import.meta.dirname, 'fixtures');
+    const lines = readFileSync(join(fix, 'quirky-stacked.dat'), 'utf8').split('\n');
+    const last = lines.findIndex((l) => l.includes('age = 1.9952623e+09'));
+    const dir = mkdtempSync(join(tmpdir(), 'coeval-stage-'));
+    writeFileSync(join(dir, 'q.dat'), `${lines.slice(0, last - 1).join('\n')}\n`);
+    const { grid: section } = loadGridMap(join(fix, 'quirky-map.toml'));
+    const g = (await importGrid(gridImportSpec(section, dir, 'grid', [join(dir, 'q.dat')]))).grid;
+    const src = new GridSource(g);
+    const feh = g.isochrones[0].feh;
+    const iso = src.isochrone(9.05, feh, { bands: ['V'] })!;
+    for (let k = 1; k < iso.phase.length; k++) {
+      expect(iso.phase[k]).toBeGreaterThanOrEqual(iso.phase[k - 1]);
+      expect(iso.massInitial[k]).toBeGreaterThanOrEqual(iso.massInitial[k - 1]);
+    }
+    // Stage boundaries sit at integer phase coordinates: 0 MS, 1 SGB, 2 RGB, the last row at 3.
+    expect(iso.phaseCoord[0]).toBe(0);
+    expect(iso.phaseCoord.at(-1)).toBe(3);
+    expect(new Set(iso.phase)).toEqual(new Set([1, 2, 3]));
+  });
+});
