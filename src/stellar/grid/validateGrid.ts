@@ -186,7 +186,10 @@ function duplicatesAndOrder(g: GridTable, out: GridProblem[]): void {
  */
 function truncatedLast(g: GridTable, out: GridProblem[]): void {
   const lastOfFile = new Map<number, number>();
-  g.isochrones.forEach((iso, k) => lastOfFile.set(iso.source, k));
+  // Isochrones computed by coeval (no source file) cannot have been cut short by a download.
+  g.isochrones.forEach((iso, k) => {
+    if (iso.source >= 0) lastOfFile.set(iso.source, k);
+  });
   for (const k of lastOfFile.values()) {
     const iso = g.isochrones[k];
     const others = g.isochrones
