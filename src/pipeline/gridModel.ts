@@ -7,7 +7,8 @@ import { readdirSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import type { BandId } from '../core/bands.js';
 import { ConfigError } from '../core/errors.js';
-import type { GridConfig } from '../config/index.js';
+import type { GridConfig, LoadedConfig } from '../config/index.js';
+import type { StellarSetup } from './stellarModel.js';
 import { GRID_PHASE_NAMES } from '../config/index.js';
 import { Phase } from '../stellar/types.js';
 import type { GridImportSpec, GridSource, GridTable } from '../stellar/grid/index.js';
@@ -116,4 +117,16 @@ export async function gridSourceFromConfig(g: GridConfig, baseDir: string): Prom
   const { GridSource } = await import('../stellar/grid/index.js');
   const { grid } = await loadConfiguredGrid(g, baseDir);
   return new GridSource(grid);
+}
+
+/**
+ * The stellar model a config asks for: the user's grid when there is a `[grid]` section (its isochrones
+ * replace the built-in evolution and photometry), else the built-in model with the `[model]` settings. The
+ * extinction law comes from `[model]` either way.
+ */
+export async function stellarSetupFromConfig(loaded: LoadedConfig): Promise<StellarSetup> {
+  const { builtinSetup } = await import('./stellarModel.js');
+  const setup = builtinSetup(loaded.config.model);
+  const g = loaded.config.grid;
+  return g ? { ...setup, source: await gridSourceFromConfig(g, loaded.baseDir) } : setup;
 }
