@@ -180,13 +180,15 @@ export class GridSource implements IsochroneSource {
     const cols = [0, 1, 2, 3, 4, ...bandIdx.map((b) => BASE_COLUMNS + b)];
     const nCols = cols.length;
     const out: Float64Array[] = new Array(nCols);
+    // One allocation for every output column (and the phase coordinate): views on a single buffer.
+    const buffer = new Float64Array(n * (nCols + 1));
     const w0 = w[0];
     const w1 = w[1];
     const w2 = nc > 2 ? w[2] : 0;
     const w3 = nc > 3 ? w[3] : 0;
     for (let c = 0; c < nCols; c++) {
       const col = cols[c];
-      const o = new Float64Array(n);
+      const o = buffer.subarray(c * n, (c + 1) * n);
       if (col === 1 && !this.grid.hasMassCurrent) {
         o.fill(Number.NaN);
         out[c] = o;
@@ -209,7 +211,7 @@ export class GridSource implements IsochroneSource {
       o[n - 1] = this.combinedAt(cell, col, w, uHi);
       out[c] = o;
     }
-    const uOut = new Float64Array(n);
+    const uOut = buffer.subarray(nCols * n, (nCols + 1) * n);
     uOut[0] = uLo;
     if (inner > 0) uOut.set(U.subarray(p0, p1 + 1), 1);
     uOut[n - 1] = uHi;
