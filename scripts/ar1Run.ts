@@ -6,7 +6,9 @@
  * be injected: a stuck walker (frozen, never accepting) and a shifted ensemble (another "mode").
  */
 import mt19937 from '@stdlib/random-base-mt19937';
+import { coevalVersion } from '../src/core/version.js';
 import type { ParameterInfo } from '../src/core/parameters.js';
+import { createRunDirectory, newRunId, RUN_FORMAT, RUN_LAYOUT, RunChainWriter, type RunManifest } from '../src/io/index.js';
 import type { EnsembleState } from '../src/sampler/types.js';
 
 export interface Ar1Options {
@@ -73,3 +75,51 @@ export function* ar1States(o: Ar1Options): Generator<EnsembleState> {
 
 /** Blob names of the states above: the chain writer fills log_prior and log_likelihood from them. */
 export const AR1_BLOB_NAMES = ['log_prior', 'log_likelihood'] as const;
+
+export interface Ar1RunOptions extends Omit<Ar1Options, 'ensemble' | 'seed' | 'stuckWalkers' | 'shiftSd'> {
+  nEnsembles: number;
+  /** Seed of ensemble k is seed + k. */
+  seed: number;
+  /** Steps between flushes (checkpoints). */
+  flushEvery?: number;
+  /** Leave the chain files open, as a run that is still going (or crashed) leaves them. */
+  leaveOpen?: boolean;
+  /** Faults: stuck walkers of an ensemble, and a shift (in sd) of one ensemble. */
+  stuck?: { ensemble: number; walkers: number[] };
+  shifted?: { ensemble: number; sd: number };
+}
+
+/** Write a run directory (manifest.json and chains/) of AR(1) ensembles, as a fit would; returns its path. */
+export function writeAr1Run(dir: string, o: Ar1RunOptions): string {
+  const manifest: RunManifest = {
+    format: RUN_FORMAT,
+    runId: newRunId(),
+    createdAt: new Date().toISOString(),
+    coevalVersion: coevalVersion(),
+    parameters: o.parameters.map((p) => ({ ...p })),
+    nEnsembles: o.nEnsembles,
+    nWalkers: o.nWalkers,
+    seeds: Array.from({ length: o.nEnsembles }, (_, k) => o.seed + k),
+    chainFiles: Array.from({ length: o.nEnsembles }, (_, k) => RUN_LAYOUT.chainFile(k)),
+    provenance: { model: `analytic test-bed: independent AR(1) walkers (rho = ${o.rho}) around a Gaussian target; no stellar model, no photometric calibration` },
+    status: o.leaveOpen ? 'running' : 'finished',
+  };
+  const path = createRunDirectory(dir, manifest);
+  const sink = RunChainWriter.create(path, manifest, { blobNames: AR1_BLOB_NAMES });
+  const gens = Array.from({ length: o.nEnsembles }, (_, k) =>
+    ar1States({
+      ...o,
+      ensemble: k,
+      seed: o.seed + k,
+      stuckWalkers: o.stuck?.ensemble === k ? o.stuck.walkers : undefined,
+      shiftSd: o.shifted?.ensemble === k ? o.shifted.sd : undefined,
+    }),
+  );
+  for (let step = 1; step <= o.nSteps; step++) {
+    for (const g of gens) sink.append(g.next().value as EnsembleState);
+    if (o.flushEvery && step % o.flushEvery === 0) sink.flush();
+  }
+  if (o.leaveOpen) sink.flush();
+  else sink.close();
+  return path;
+}

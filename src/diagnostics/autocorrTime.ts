@@ -18,6 +18,8 @@ export interface AutocorrTime {
   n: number;
   /** Whether the chains are longer than 50 tau (emcee's `tol`); below that, do not trust tau. */
   reliable: boolean;
+  /** Constant chains left out (with `skipConstant`); emcee has no such option and returns NaN. */
+  skippedChains: number;
 }
 
 export interface AutocorrTimeOptions {
@@ -25,6 +27,11 @@ export interface AutocorrTimeOptions {
   c?: number;
   /** Minimum chain length in units of tau for a reliable estimate; 50 as in emcee. */
   tol?: number;
+  /**
+   * Leave out chains that never change (a stuck walker), instead of returning NaN as emcee does; the
+   * diagnosis reports stuck walkers on their own and still wants tau from the others.
+   */
+  skipConstant?: boolean;
 }
 
 /**
@@ -51,8 +58,10 @@ export function autocorrTime(chains: Chains, options: AutocorrTimeOptions = {}):
   const c = options.c ?? 5;
   const tol = options.tol ?? THRESHOLDS.tauMultiple;
   const n = drawsPerChain(chains);
-  const { tau, window } = withGrowingLags(n, (maxLag) => windowedTau(meanAutocorrelation(chains, maxLag), n, c));
-  return { tau, window, n, reliable: tol * tau <= n };
+  const used = options.skipConstant ? chains.filter((ch) => ch.some((v) => v !== ch[0])) : chains;
+  if (used.length === 0) return { tau: NaN, window: 0, n, reliable: false, skippedChains: chains.length };
+  const { tau, window } = withGrowingLags(n, (maxLag) => windowedTau(meanAutocorrelation(used, maxLag), n, c));
+  return { tau, window, n, reliable: tol * tau <= n, skippedChains: chains.length - used.length };
 }
 
 export interface AutocorrTimePoint {

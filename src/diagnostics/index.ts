@@ -14,3 +14,7 @@ export { rhat, rhatBasic, rhatBulk, rhatFolded } from './rhat.js';
 export { essBasic, essBulk, essTail, essMean, essQuantile } from './ess.js';
 export { parameterDiagnostics, REPORTED_QUANTILES, type ParameterDiagnostics, type QuantileDiagnostics } from './parameterDiagnostics.js';
 export { mcseMean, mcseQuantile, mcseQuantiles, mcseQuantileFromEss } from './mcse.js';
+export { acceptance, type Acceptance, type StuckWalker } from './acceptance.js';
+export { ensembleAgreement, AGREEMENT_ALPHA, type EnsembleAgreement } from './ensembleAgreement.js';
+export { diagnose, CHAIN_CONVENTION, type DiagnoseInput, type Diagnosis, type ParameterDiagnosis } from './diagnose.js';
+export { verdict, type Verdict, type VerdictStatus } from './verdict.js';

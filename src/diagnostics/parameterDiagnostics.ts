@@ -66,7 +66,7 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
   const chains = n0 % 2 === 1 ? input.map((c) => c.subarray(1)) : [...input];
   const n = drawsPerChain(chains);
   const nonFinite = countNonFinite(chains);
-  const tau = autocorrTime(chains);
+  const tau = autocorrTime(chains, { skipConstant: true });
   if (nonFinite > 0 || n < 4) {
     return {
       nDraws: n,
