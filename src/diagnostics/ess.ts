@@ -63,6 +63,14 @@ function essFromAutocovariance(acov: Float64Array, n: number, m: number, chainMe
   return total / tau;
 }
 
+/** essBasic without the checks, for callers that have made them (n >= 3, finite, not constant). */
+function essUnchecked(chains: Chains): number {
+  const n = chains[0].length;
+  const m = chains.length;
+  const chainMeansVariance = m > 1 ? variance(Float64Array.from(chains, (c) => mean(c))) : 0;
+  return withGrowingLags(n, (maxLag) => essFromAutocovariance(meanAutocovariance(chains, maxLag), n, m, chainMeansVariance));
+}
+
 /**
  * ESS of the chains as given (no splitting, no normalisation); posterior's `.ess`. NaN for fewer than three
  * draws per chain, or for non-finite or constant draws.
@@ -70,9 +78,7 @@ function essFromAutocovariance(acov: Float64Array, n: number, m: number, chainMe
 export function essBasic(chains: Chains): number {
   const n = drawsPerChain(chains);
   if (n < 3 || isDegenerate(chains)) return NaN;
-  const m = chains.length;
-  const chainMeansVariance = m > 1 ? variance(Float64Array.from(chains, (c) => mean(c))) : 0;
-  return withGrowingLags(n, (maxLag) => essFromAutocovariance(meanAutocovariance(chains, maxLag), n, m, chainMeansVariance));
+  return essUnchecked(chains);
 }
 
 /** Bulk-ESS: ESS of the rank-normalised split chains. */
@@ -92,23 +98,40 @@ export function essMean(chains: Chains): number {
  */
 export function essQuantile(chains: Chains, p: number, sorted?: Float64Array): number {
   if (isDegenerate(chains)) return NaN;
-  const all = sorted ?? sortedDraws(chains);
+  return essQuantileOfValid(chains, p, sorted ?? sortedDraws(chains));
+}
+
+/**
+ * essQuantile for draws already known to be finite and not constant, with `sorted` given; `scratch` (one
+ * value per draw) is used for the indicators when given, to spare allocations when many quantiles are done.
+ */
+export function essQuantileOfValid(chains: Chains, p: number, sorted: Float64Array, scratch?: Float64Array): number {
   // posterior moves p = 1 just inside, so that the indicator is not constant.
-  const prob = p === 1 ? (all.length - 0.5) / all.length : p;
-  const q = quantileSorted(all, prob);
-  const indicators = chains.map((c) => {
-    const out = new Float64Array(c.length);
-    for (let i = 0; i < c.length; i++) out[i] = c[i] <= q ? 1 : 0;
+  const prob = p === 1 ? (sorted.length - 0.5) / sorted.length : p;
+  const q = quantileSorted(sorted, prob);
+  const n = drawsPerChain(chains);
+  const buf = scratch && scratch.length >= n * chains.length ? scratch : new Float64Array(n * chains.length);
+  let ones = 0;
+  const indicators = chains.map((c, k) => {
+    const out = buf.subarray(k * n, (k + 1) * n);
+    for (let i = 0; i < n; i++) {
+      const v = c[i] <= q ? 1 : 0;
+      out[i] = v;
+      ones += v;
+    }
     return out;
   });
-  return essBasic(splitChains(indicators));
+  const split = splitChains(indicators);
+  if (n < 6 || ones === 0 || ones === n * chains.length) return essBasic(split);
+  // The split drops the middle draw of odd-length chains; if that leaves the indicator constant, essBasic says NaN.
+  return n % 2 === 1 ? essBasic(split) : essUnchecked(split);
 }
 
 /** Tail-ESS: the smaller of the ESS of the 5% and 95% quantiles. */
 export function essTail(chains: Chains, sorted?: Float64Array): number {
-  const all = sorted ?? (isDegenerate(chains) ? undefined : sortedDraws(chains));
-  if (!all) return NaN;
-  const lower = essQuantile(chains, 0.05, all);
-  const upper = essQuantile(chains, 0.95, all);
+  if (isDegenerate(chains)) return NaN;
+  const all = sorted ?? sortedDraws(chains);
+  const lower = essQuantileOfValid(chains, 0.05, all);
+  const upper = essQuantileOfValid(chains, 0.95, all);
   return Number.isNaN(lower) || Number.isNaN(upper) ? NaN : Math.min(lower, upper);
 }

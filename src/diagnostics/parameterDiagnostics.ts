@@ -7,8 +7,8 @@ import type { AutocorrTime } from './autocorrTime.js';
 import { autocorrTime } from './autocorrTime.js';
 import type { Chains } from './chains.js';
 import { drawsPerChain } from './chains.js';
-import { essBasic, essMean, essQuantile } from './ess.js';
-import { mcseQuantile, mcseQuantileFromEss } from './mcse.js';
+import { essBasic, essMean, essQuantileOfValid } from './ess.js';
+import { mcseQuantileFromEss } from './mcse.js';
 import { mean, pooledVariance } from './moments.js';
 import { quantileSorted } from './quantile.js';
 import { rhatBasic } from './rhat.js';
@@ -92,8 +92,9 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
   const zFolded = splitChains(pool.foldedRankNormalized());
   const rhatBulk = rhatBasic(zBulk);
   const rhatFolded = rhatBasic(zFolded);
+  const scratch = new Float64Array(n * chains.length);
   const quantiles = REPORTED_QUANTILES.map((p) => {
-    const ess = essQuantile(chains, p, pool.sorted);
+    const ess = essQuantileOfValid(chains, p, pool.sorted, scratch);
     return { p, value: quantileSorted(pool.sorted, p), ess, mcse: mcseQuantileFromEss(pool.sorted, p, ess) };
   });
   const ess05 = quantiles[0].ess;
@@ -105,7 +106,7 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
   const groups = Array.from({ length: nGroups }, (_, g) => {
     const sub = chains.slice(g * perGroup, (g + 1) * perGroup);
     const sorted = pool.sortedSubset(g * perGroup, (g + 1) * perGroup);
-    return { median: quantileSorted(sorted, 0.5), mcse: mcseQuantile(sub, 0.5, sorted) };
+    return { median: quantileSorted(sorted, 0.5), mcse: sorted[0] === sorted[sorted.length - 1] ? NaN : mcseQuantileFromEss(sorted, 0.5, essQuantileOfValid(sub, 0.5, sorted, scratch)) };
   });
   return {
     nDraws: n,

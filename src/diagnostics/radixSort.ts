@@ -1,7 +1,6 @@
 /**
- * Sorting of doubles by least-significant-digit radix sort on their IEEE-754 bit patterns: six stable
- * counting passes of 11, 11 and 10 bits over the low and then the high 32-bit word, each skipped when every
- * key has the same digit there.
+ * Sorting of doubles by radix sort on their IEEE-754 bit patterns (most significant digit first, see
+ * msdSort).
  *
  * The diagnostics rank and sort ~10^7 draws several times per parameter. The engine's comparison sort takes
  * over a second for that, cannot carry the original positions along (ranks need them), and ranking by
@@ -48,107 +47,93 @@ function valueOfKey(hi: number, lo: number, words: Uint32Array, i: number): void
   }
 }
 
-const DIGITS: readonly [number, number][] = [
-  [0, 0x7ff],
-  [11, 0x7ff],
-  [22, 0x3ff],
-];
-const counts = new Uint32Array(2048);
-
-/** Start offsets of each digit value; false when all keys share the digit (the pass can be skipped). */
-function offsets(key: Uint32Array, shift: number, mask: number): boolean {
-  const n = key.length;
-  counts.fill(0);
-  for (let i = 0; i < n; i++) counts[(key[i] >>> shift) & mask]++;
-  let sum = 0;
-  for (let d = 0; d <= mask; d++) {
-    const c = counts[d];
-    if (c === n) return false;
-    counts[d] = sum;
-    sum += c;
-  }
-  return true;
-}
-
 type U32 = Uint32Array<ArrayBuffer>;
 
-/** Stable LSD passes over the digits of `key`, moving `other` and the payload along. */
-function passes(key: U32, other: U32, payload: U32 | undefined, key2: U32, other2: U32, payload2: U32 | undefined): { key: U32; other: U32; payload: U32 | undefined; key2: U32; other2: U32; payload2: U32 | undefined } {
-  const n = key.length;
-  for (const [shift, mask] of DIGITS) {
-    if (!offsets(key, shift, mask)) continue;
-    if (payload && payload2) {
-      for (let i = 0; i < n; i++) {
-        const k = key[i];
-        const dest = counts[(k >>> shift) & mask]++;
-        key2[dest] = k;
-        other2[dest] = other[i];
-        payload2[dest] = payload[i];
-      }
-      [payload, payload2] = [payload2, payload];
-    } else {
-      for (let i = 0; i < n; i++) {
-        const k = key[i];
-        const dest = counts[(k >>> shift) & mask]++;
-        key2[dest] = k;
-        other2[dest] = other[i];
-      }
-    }
-    [key, key2] = [key2, key];
-    [other, other2] = [other2, other];
-  }
-  return { key, other, payload, key2, other2, payload2 };
-}
-
-/** Longest run of equal keys that insertion sort may finish; longer runs make us do the full radix sort. */
-const MAX_RUN = 64;
+/** Buckets of fewer keys than this are finished by insertion sort. */
+const SMALL = 24;
+/** Widest digit: 2048 buckets fit the first-level caches' reach; smaller ranges use narrower digits. */
+const MAX_DIGIT_BITS = 11;
 
 /**
- * Sorts by (hi, lo) with a payload. The high word holds the sign, the exponent and 20 bits of mantissa,
- * which nearly always tell ~10^7 posterior draws apart; so it is radix-sorted first, and the short runs of
- * equal high words are finished by insertion sort on the low word. Only if some run is long (draws packed
- * into a relative width below ~1e-6) are the low words radix-sorted too.
+ * Most-significant-digit radix sort of keys (hi, lo) with a payload, in place. Posterior draws of one
+ * parameter usually share sign, exponent and the leading mantissa bits, so the first digit is taken just
+ * below the bits that all keys share; two 11-bit digits then leave buckets of a few keys, which insertion
+ * sort finishes. Stable: equal keys keep their order.
  */
-function radix(hi: U32, lo: U32, payload: U32 | undefined): { hi: U32; lo: U32; payload: U32 | undefined } {
+function msdSort(hi: U32, lo: U32, payload: U32): void {
   const n = hi.length;
-  const scratchA = new Uint32Array(n);
-  const scratchB = new Uint32Array(n);
-  const scratchP = payload ? new Uint32Array(n) : undefined;
-  const byHi = passes(hi, lo, payload, scratchA, scratchB, scratchP);
-  hi = byHi.key;
-  lo = byHi.other;
-  payload = byHi.payload;
-  let i = 0;
-  let short = true;
-  while (i < n && short) {
-    let j = i;
-    while (j + 1 < n && hi[j + 1] === hi[i]) j++;
-    if (j - i + 1 > MAX_RUN) short = false;
-    i = j + 1;
+  if (n < 2) return;
+  let diffHi = 0;
+  let diffLo = 0;
+  for (let i = 1; i < n; i++) {
+    diffHi |= hi[i] ^ hi[0];
+    diffLo |= lo[i] ^ lo[0];
   }
-  if (!short) {
-    // Full LSD order: low word first, then the high word (stable passes keep the low-word order).
-    const byLo = passes(lo, hi, payload, byHi.other2, byHi.key2, byHi.payload2);
-    const again = passes(byLo.other, byLo.key, byLo.payload, byLo.other2, byLo.key2, byLo.payload2);
-    return { hi: again.key, lo: again.other, payload: again.payload };
+  const top = diffHi !== 0 ? 63 - Math.clz32(diffHi) : diffLo !== 0 ? 31 - Math.clz32(diffLo) : -1;
+  if (top < 0) return; // all keys equal
+  const scratch = { hi: new Uint32Array(n), lo: new Uint32Array(n), p: new Uint32Array(n) };
+  sortRange(hi, lo, payload, scratch, 0, n, top);
+}
+
+function digitAt(hi: number, lo: number, b0: number, bits: number, mask: number): number {
+  if (b0 >= 32) return (hi >>> (b0 - 32)) & mask;
+  if (b0 + bits <= 32) return (lo >>> b0) & mask;
+  return ((lo >>> b0) | (hi << (32 - b0))) & mask;
+}
+
+function sortRange(hi: U32, lo: U32, p: U32, s: { hi: U32; lo: U32; p: U32 }, start: number, end: number, top: number): void {
+  if (end - start <= SMALL || top < 0) {
+    insertionSort(hi, lo, p, start, end);
+    return;
   }
-  for (let start = 0; start < n; ) {
-    let end = start + 1;
-    while (end < n && hi[end] === hi[start]) end++;
-    for (let a = start + 1; a < end; a++) {
-      const l = lo[a];
-      const p = payload ? payload[a] : 0;
-      let b = a - 1;
-      while (b >= start && lo[b] > l) {
-        lo[b + 1] = lo[b];
-        if (payload) payload[b + 1] = payload[b];
-        b--;
-      }
-      lo[b + 1] = l;
-      if (payload) payload[b + 1] = p;
+  // About four keys per bucket for small ranges, 2048 buckets at most.
+  const bits = Math.min(MAX_DIGIT_BITS, Math.max(4, Math.ceil(Math.log2((end - start) / 4))), top + 1);
+  const buckets = 1 << bits;
+  const mask = buckets - 1;
+  const b0 = top - bits + 1;
+  const counts = new Uint32Array(buckets + 1);
+  for (let i = start; i < end; i++) counts[digitAt(hi[i], lo[i], b0, bits, mask) + 1]++;
+  for (let d = 0; d < buckets; d++) counts[d + 1] += counts[d];
+  const next = counts.slice(0, buckets);
+  for (let i = start; i < end; i++) {
+    const dest = start + next[digitAt(hi[i], lo[i], b0, bits, mask)]++;
+    s.hi[dest] = hi[i];
+    s.lo[dest] = lo[i];
+    s.p[dest] = p[i];
+  }
+  hi.set(s.hi.subarray(start, end), start);
+  lo.set(s.lo.subarray(start, end), start);
+  p.set(s.p.subarray(start, end), start);
+  if (b0 === 0) return; // every bit used: buckets hold equal keys, already in stable order
+  for (let d = 0; d < buckets; d++) {
+    const a = start + counts[d];
+    const b = start + counts[d + 1];
+    if (b - a > 1) sortRange(hi, lo, p, s, a, b, b0 - 1);
+  }
+}
+
+function insertionSort(hi: U32, lo: U32, p: U32, start: number, end: number): void {
+  for (let a = start + 1; a < end; a++) {
+    const h = hi[a];
+    const l = lo[a];
+    const v = p[a];
+    let b = a - 1;
+    while (b >= start && (hi[b] > h || (hi[b] === h && lo[b] > l))) {
+      hi[b + 1] = hi[b];
+      lo[b + 1] = lo[b];
+      p[b + 1] = p[b];
+      b--;
     }
-    start = end;
+    hi[b + 1] = h;
+    lo[b + 1] = l;
+    p[b + 1] = v;
   }
+}
+
+/** Sort keys (hi, lo) and a payload; returns the arrays that hold the result. */
+function radix(hi: U32, lo: U32, payload: U32 | undefined): { hi: U32; lo: U32; payload: U32 | undefined } {
+  const p = payload ?? new Uint32Array(hi.length);
+  msdSort(hi, lo, p);
   return { hi, lo, payload };
 }
 
