@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
+import { samplerSection } from './sections/sampler.js';
 import { priorsSection } from './sections/priors.js';
 
 /**
@@ -14,6 +15,7 @@ export const configSchema = z.strictObject({
   catalogue: catalogueSection,
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
+  sampler: samplerSection.prefault({}),
   priors: priorsSection.optional(),
 });
 

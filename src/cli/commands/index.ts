@@ -1,3 +1,4 @@
+import { checkCommand } from './check.js';
 import { configCommand } from './config.js';
 import { demoCommand } from './demo.js';
 import { diagnoseCommand } from './diagnose.js';
@@ -5,4 +6,4 @@ import { summaryCommand } from './summary.js';
 import type { CommandSpec } from './types.js';
 
 /** Every command, in the order `coeval --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [demoCommand, configCommand, diagnoseCommand, summaryCommand];
+export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, configCommand, diagnoseCommand, summaryCommand];
