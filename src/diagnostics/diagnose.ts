@@ -35,6 +35,8 @@ export interface DiagnoseInput {
   discard: number;
   /** Thinning of the draws given (their spacing in stored steps). */
   thin: number;
+  /** True when `discard` is our own suggestion (then the verdict does not second-guess it). */
+  discardSuggested?: boolean;
 }
 
 export interface ParameterDiagnosis extends ParameterDiagnostics {
@@ -77,5 +79,5 @@ export function diagnose(input: DiagnoseInput): Diagnosis {
   const keptSteps = input.totalSteps - input.discard;
   const suggestedBurnIn = Number.isFinite(tauMax) ? Math.ceil(THRESHOLDS.burnInTauMultiple * tauMax) : NaN;
   const base = { parameters, acceptance: acc, nEnsembles, nWalkers, totalSteps: input.totalSteps, discard: input.discard, thin, keptSteps, tauMax, suggestedBurnIn, chainConvention: CHAIN_CONVENTION };
-  return { ...base, verdict: verdict(base) };
+  return { ...base, verdict: verdict({ ...base, discardSuggested: input.discardSuggested ?? false }) };
 }

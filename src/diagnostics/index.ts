@@ -18,3 +18,4 @@ export { acceptance, type Acceptance, type StuckWalker } from './acceptance.js';
 export { ensembleAgreement, AGREEMENT_ALPHA, type EnsembleAgreement } from './ensembleAgreement.js';
 export { diagnose, CHAIN_CONVENTION, type DiagnoseInput, type Diagnosis, type ParameterDiagnosis } from './diagnose.js';
 export { verdict, type Verdict, type VerdictStatus } from './verdict.js';
+export { tauOfRows } from './tauEstimator.js';

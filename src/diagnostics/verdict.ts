@@ -27,6 +27,7 @@ interface VerdictInput {
   keptSteps: number;
   tauMax: number;
   suggestedBurnIn: number;
+  discardSuggested: boolean;
 }
 
 const fmt = (x: number, digits = 3): string => (Number.isFinite(x) ? Number(x.toPrecision(digits)).toLocaleString('en-US') : String(x));
@@ -83,8 +84,7 @@ export function verdict(d: VerdictInput): Verdict {
     // Common practice for affine-invariant ensembles (references.md): 0.2 to 0.5 is healthy.
     if (a < 0.2 || a > 0.5) notes.push(`ensemble ${k} accepts ${fmt(a, 2)} of proposals; 0.2 to 0.5 is usual (common practice).`);
   });
-  // A suggested burn-in comes from the second half of the chains, so it may differ a little from this one.
-  if (Number.isFinite(d.suggestedBurnIn) && d.discard < 0.8 * d.suggestedBurnIn) {
+  if (!d.discardSuggested && Number.isFinite(d.suggestedBurnIn) && d.discard < d.suggestedBurnIn) {
     notes.push(`the burn-in of ${fmt(d.discard)} steps is shorter than the suggested ${fmt(d.suggestedBurnIn)} (${THRESHOLDS.burnInTauMultiple} tau_max).`);
   }
 

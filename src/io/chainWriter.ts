@@ -8,20 +8,17 @@
 import { closeSync, existsSync, fstatSync, fsyncSync, ftruncateSync, openSync, writeSync } from 'node:fs';
 import type { Schema } from 'apache-arrow';
 import { OutputError } from '../core/errors.js';
+import type { ChainSink } from '../sampler/chainSink.js';
 import type { EnsembleState } from '../sampler/types.js';
 import { decodeBatch, decodeSchema, encodeBatch, encodeSchema, type ColumnBuffers } from './chainBatch.js';
 import { chainSchema, headerFromSchema, STEP_COLUMN, type ChainFileHeader } from './chainSchema.js';
 import { readMessageBytes, scanStream } from './ipcStream.js';
 
-/** What the sampler's run loop calls. The writer of one ensemble and the writer of a run both provide it. */
-export interface ChainSink {
-  /** Record one step of one ensemble (all its walkers). */
-  append(state: EnsembleState): void;
-  /** Write what is buffered and fsync; call before writing a checkpoint. */
-  flush(): void;
-  /** Flush, end the stream and close. */
-  close(): void;
-}
+/**
+ * What the sampler's run loop calls (src/sampler/chainSink.ts): append each stored state, flush (write and
+ * fsync) before each checkpoint, close at the end. The writer of a run (RunChainWriter) adds `rewind`.
+ */
+export type { ChainSink } from '../sampler/chainSink.js';
 
 export interface ChainWriterOptions extends ChainFileHeader {
   /**

@@ -7,7 +7,8 @@ import { join } from 'node:path';
 import { InputError } from '../core/errors.js';
 import type { EnsembleState } from '../sampler/types.js';
 import { ChainFile, type ChainOptions } from './chainReader.js';
-import { ChainWriter, type ChainSink, type ChainWriterOptions, type ResumeReport } from './chainWriter.js';
+import type { ChainSink } from '../sampler/chainSink.js';
+import { ChainWriter, type ChainWriterOptions, type ResumeReport } from './chainWriter.js';
 import type { RunManifest } from './manifest.js';
 
 export interface RunChainWriterOptions {
@@ -29,12 +30,20 @@ function writerOptions(manifest: RunManifest, k: number, opts: RunChainWriterOpt
   };
 }
 
-/** The chain files of a run, written together. */
+/**
+ * The chain files of a run, written together: the sink the sampler's run loop is given. A new run's files
+ * are created at once (`create`); a resumed run's files are reopened when the run loop calls `rewind` with
+ * each ensemble's checkpointed step (`reopen`), which cuts torn tails and rows written after the checkpoint.
+ */
 export class RunChainWriter implements ChainSink {
-  readonly writers: ChainWriter[];
+  private writers: ChainWriter[] | undefined;
+  private readonly pending?: { runDir: string; manifest: RunManifest; opts: RunChainWriterOptions };
+  /** What `rewind` found and removed, per ensemble (empty for a new run). */
+  readonly resumeReports: ResumeReport[] = [];
 
-  private constructor(writers: ChainWriter[]) {
+  private constructor(writers: ChainWriter[] | undefined, pending?: { runDir: string; manifest: RunManifest; opts: RunChainWriterOptions }) {
     this.writers = writers;
+    this.pending = pending;
   }
 
   /** New chain files for every ensemble of the run in `runDir` (its manifest names them). */
@@ -49,35 +58,49 @@ export class RunChainWriter implements ChainSink {
     return new RunChainWriter(writers);
   }
 
-  /** Reopen every chain file of the run to continue from a checkpoint at `step` (see ChainWriter.resume). */
-  static resume(runDir: string, manifest: RunManifest, step: number, opts: RunChainWriterOptions = {}): { writer: RunChainWriter; reports: ResumeReport[] } {
+  /** The chain files of a run to be resumed; they are opened and cut back when the run loop calls `rewind`. */
+  static reopen(runDir: string, manifest: RunManifest, opts: RunChainWriterOptions = {}): RunChainWriter {
+    return new RunChainWriter(undefined, { runDir, manifest, opts });
+  }
+
+  /** Reopen every chain file at its ensemble's checkpointed step (see ChainWriter.resume). */
+  rewind(steps: readonly number[]): void {
+    if (!this.pending) throw new Error('rewind is for a run reopened to resume (RunChainWriter.reopen)');
+    const { runDir, manifest, opts } = this.pending;
+    if (steps.length !== manifest.nEnsembles) throw new Error(`rewind got ${steps.length} steps for ${manifest.nEnsembles} ensembles`);
+    this.close();
     const writers: ChainWriter[] = [];
-    const reports: ResumeReport[] = [];
+    this.resumeReports.length = 0;
     try {
       for (let k = 0; k < manifest.nEnsembles; k++) {
-        const r = ChainWriter.resume(join(runDir, manifest.chainFiles[k]), { ...writerOptions(manifest, k, opts), step });
+        const r = ChainWriter.resume(join(runDir, manifest.chainFiles[k]), { ...writerOptions(manifest, k, opts), step: steps[k] });
         writers.push(r.writer);
-        reports.push(r.report);
+        this.resumeReports.push(r.report);
       }
     } catch (err) {
       for (const w of writers) w.close();
       throw err;
     }
-    return { writer: new RunChainWriter(writers), reports };
+    this.writers = writers;
+  }
+
+  private get open(): ChainWriter[] {
+    if (!this.writers) throw new Error('the chain files of a reopened run are written only after rewind');
+    return this.writers;
   }
 
   append(state: EnsembleState): void {
-    const w = this.writers[state.ensemble];
+    const w = this.open[state.ensemble];
     if (!w) throw new Error(`no chain file for ensemble ${state.ensemble}`);
     w.append(state);
   }
 
   flush(): void {
-    for (const w of this.writers) w.flush();
+    for (const w of this.open) w.flush();
   }
 
   close(): void {
-    for (const w of this.writers) w.close();
+    for (const w of this.writers ?? []) w.close();
   }
 }
 

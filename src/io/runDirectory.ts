@@ -13,6 +13,8 @@ import { MANIFEST_FILE, readManifest, writeManifest, type RunManifest } from './
 export const RUN_LAYOUT = {
   manifest: MANIFEST_FILE,
   chainsDir: 'chains',
+  /** The sampler's checkpoint (written temp-then-rename by src/sampler/checkpoint.ts). */
+  checkpoint: 'checkpoint.json',
   /** Chain file of ensemble k, relative to the run directory. */
   chainFile: (ensemble: number): string => `chains/ensemble-${ensemble}.arrows`,
 } as const;

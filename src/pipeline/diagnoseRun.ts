@@ -88,6 +88,7 @@ export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): R
     totalSteps: run.nSteps,
     discard,
     thin,
+    discardSuggested: discardSource === 'suggested',
   });
   const provenance = provenanceLine(manifest);
   const summary = summarize(diagnosis, draws, logPosterior, provenance);

@@ -3,7 +3,8 @@ import { configCommand } from './config.js';
 import { demoCommand } from './demo.js';
 import { diagnoseCommand } from './diagnose.js';
 import { summaryCommand } from './summary.js';
+import { testbedCommand } from './testbed.js';
 import type { CommandSpec } from './types.js';
 
 /** Every command, in the order `coeval --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, configCommand, diagnoseCommand, summaryCommand];
+export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, configCommand, diagnoseCommand, summaryCommand, testbedCommand];
