@@ -63,11 +63,15 @@ export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): R
     });
   }
   const all = names.map((n) => chainsFromBuffer(run.values[n], run.nDraws, nChains));
+  // Steps between consecutive draws: the read's thin times the sampler's own storage stride (a run that
+  // stored every k-th step). Burn-in, tau and chain lengths below are in sampler steps.
+  const spacing = run.nDraws >= 2 ? run.steps[1] - run.steps[0] : thin;
+  const totalSteps = run.nDraws > 0 ? run.steps[run.nDraws - 1] : 0;
   const discardSource = opts.discard === undefined ? 'suggested' : 'given';
-  const discard = opts.discard ?? suggestDiscard(all, thin);
-  const discardDraws = Math.ceil(discard / thin);
+  const discard = opts.discard ?? suggestDiscard(all, spacing);
+  const discardDraws = Math.ceil(discard / spacing);
   if (run.nDraws - discardDraws < 8) {
-    throw new UsageError(`a burn-in of ${discard} steps leaves fewer than 8 draws per walker (the run has ${run.nSteps} steps)`, { hint: 'give a smaller --discard' });
+    throw new UsageError(`a burn-in of ${discard} steps leaves fewer than 8 draws per walker (the run has ${totalSteps} steps)`, { hint: 'give a smaller --discard' });
   }
   const draws = all.map((chains) => dropFirst(chains, discardDraws));
   const logPosterior = dropFirst(chainsFromBuffer(run.values.log_posterior, run.nDraws, nChains), discardDraws);
@@ -85,15 +89,15 @@ export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): R
     nWalkers: run.nWalkers,
     accepted,
     acceptanceSteps: run.nDraws - discardDraws,
-    totalSteps: run.nSteps,
-    discard,
-    thin,
+    totalSteps,
+    discard: discardDraws * spacing,
+    thin: spacing,
     discardSuggested: discardSource === 'suggested',
   });
   const provenance = provenanceLine(manifest);
   const summary = summarize(diagnosis, draws, logPosterior, provenance);
   const keptDraws = (run.nDraws - discardDraws) * nChains;
   const running = run.files.filter((f) => !f.closed).length;
-  const drawsLine = `${run.nEnsembles} ensemble(s) x ${run.nWalkers} walkers, ${run.nSteps.toLocaleString('en-US')} steps, burn-in ${discard.toLocaleString('en-US')} (${discardSource}${thin > 1 ? `, thin ${thin}` : ''}), ${keptDraws.toLocaleString('en-US')} draws${running ? `; ${running} chain file(s) still open (running or stopped)` : ''}`;
+  const drawsLine = `${run.nEnsembles} ensemble(s) x ${run.nWalkers} walkers, ${totalSteps.toLocaleString('en-US')} steps, burn-in ${(discardDraws * spacing).toLocaleString('en-US')} (${discardSource}${spacing > 1 ? `, a draw every ${spacing} steps` : ''}), ${keptDraws.toLocaleString('en-US')} draws${running ? `; ${running} chain file(s) still open (running or stopped)` : ''}`;
   return { runDir: dir, manifest, diagnosis, summary, discardSource, drawsLine, provenance, files: run.files };
 }
