@@ -11,7 +11,8 @@ describe('digits from the Monte Carlo error (the rule in significantDigits.ts)',
   it('stops at the leading digit of 2 MCSE', () => {
     expect(decimalsFor(0.013, 0.4, 0.4)).toBe(2); // 2 MCSE = 0.026
     expect(decimalsFor(0.05, 0.4, 0.4)).toBe(1); // 2 MCSE = 0.1
-    expect(decimalsFor(0.3, 0.4, 0.4)).toBe(0); // 2 MCSE = 0.6
+    expect(decimalsFor(0.3, 0.4, 0.4)).toBe(1); // 2 MCSE = 0.6
+    expect(decimalsFor(0.6, 4, 4)).toBe(0); // 2 MCSE = 1.2
     expect(decimalsFor(7, 100, 100)).toBe(0); // never negative
   });
 
