@@ -4,6 +4,7 @@ import type { BenchGroup } from './harness.js';
 import { photometryBench } from './photometry.js';
 import { samplerBench } from './sampler.js';
 import { startupBench } from './startup.js';
+import { stellarBench } from './stellar.js';
 
 /** Every benchmark group; `npm run bench <name>` runs one. Add new groups here. */
-export const GROUPS: readonly BenchGroup[] = [startupBench, catalogBench, samplerBench, photometryBench, chainsBench];
+export const GROUPS: readonly BenchGroup[] = [startupBench, catalogBench, samplerBench, photometryBench, stellarBench, chainsBench];

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
+import { modelSection } from './sections/model.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
 import { samplerSection } from './sections/sampler.js';
@@ -17,6 +18,7 @@ export const configSchema = z.strictObject({
   output: outputSection.default({ overwrite: false }),
   sampler: samplerSection.prefault({}),
   priors: priorsSection.optional(),
+  model: modelSection.prefault({}),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;
