@@ -1,4 +1,5 @@
 import { catalogBench } from './catalog.js';
+import { chainsBench } from './chains.js';
 import { gridsBench } from './grids.js';
 import type { BenchGroup } from './harness.js';
 import { photometryBench } from './photometry.js';
@@ -7,4 +8,4 @@ import { startupBench } from './startup.js';
 import { stellarBench } from './stellar.js';
 
 /** Every benchmark group; `npm run bench <name>` runs one. Add new groups here. */
-export const GROUPS: readonly BenchGroup[] = [startupBench, catalogBench, samplerBench, photometryBench, stellarBench, gridsBench];
+export const GROUPS: readonly BenchGroup[] = [startupBench, catalogBench, samplerBench, photometryBench, stellarBench, chainsBench, gridsBench];
