@@ -17,6 +17,21 @@ export const RUN_LAYOUT = {
   checkpoint: 'checkpoint.json',
   /** Chain file of ensemble k, relative to the run directory. */
   chainFile: (ensemble: number): string => `chains/ensemble-${ensemble}.arrows`,
+  /**
+   * Per-star results of a fit (Arrow IPC file), one row per catalogue star after filters: `id` (utf8),
+   * `row` (int32, index in the filtered catalogue), per fitted band `<band>` and `<band>_err` (float64),
+   * `p_single`, `p_binary`, `p_field` (posterior mean responsibilities), `membership_prior` (NaN when the
+   * catalogue has none), `mass_median` (posterior median initial mass of the star, or of the primary of a
+   * binary, given cluster membership; NaN when not computed). Schema metadata `coeval.stars` (JSON) says how
+   * many posterior draws the averages use.
+   */
+  stars: 'stars.arrow',
+  /** Diagnostics and verdict (JSON), and the summary in each format. */
+  diagnostics: 'diagnostics.json',
+  summary: (format: 'txt' | 'csv' | 'json' | 'tex'): string => `summary.${format}`,
+  /** Plots: `<name>.svg`, and `<name>.png` when asked for. */
+  plotsDir: 'plots',
+  report: 'report.html',
 } as const;
 
 /** A run id: UTC time and random hex, sortable and unique enough for one user's runs. */
