@@ -1,5 +1,5 @@
 import type { TopLevelSpec } from 'vega-lite';
-import { LINE_COLOURS, PLOT_CONFIG } from './theme.js';
+import { LINE_COLOURS, PLOT_CONFIG, wrapTitle } from './theme.js';
 
 /** A sequence to draw as a line in the CMD (an isochrone, or a band of them). */
 export interface CmdCurve {
@@ -93,7 +93,7 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
           title: null,
           scale: { domain: labels, range: LINE_COLOURS.slice(0, Math.max(1, labels.length)) },
           // One curve needs no legend: the title names it.
-          ...(labels.length === 1 ? { legend: null } : { legend: { orient: 'bottom-right', labelLimit: 260 } }),
+          ...(labels.length === 1 ? { legend: null } : { legend: { orient: 'right', labelLimit: 260 } }),
         },
       },
     });
@@ -102,7 +102,7 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     config: PLOT_CONFIG,
-    ...(o.title ? { title: { text: o.title, ...(o.subtitle ? { subtitle: o.subtitle, subtitleFontSize: 10, subtitleColor: '#555' } : {}) } } : {}),
+    ...(o.title ? { title: { text: o.title, ...(o.subtitle ? { subtitle: wrapTitle(o.subtitle, o.width ?? 420, 10), subtitleFontSize: 10, subtitleColor: '#555' } : {}) } } : {}),
     width: o.width ?? 420,
     height: o.height ?? 520,
     layer: layers,

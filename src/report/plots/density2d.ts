@@ -84,3 +84,18 @@ function enclosedLevels(mass: Float64Array): Float64Array {
   }
   return level;
 }
+
+/**
+ * The density (smoothed cell mass) whose upper set holds `mass` of the posterior: the region
+ * {cell mass >= threshold} is the `mass` highest-density region of the smoothed histogram.
+ */
+export function hdrThreshold(g: Grid2d, mass: number): number {
+  let t = Infinity;
+  let densest = 0;
+  for (let k = 0; k < g.mass.length; k++) {
+    densest = Math.max(densest, g.mass[k]);
+    if (g.level[k] <= mass && g.mass[k] > 0) t = Math.min(t, g.mass[k]);
+  }
+  // When even the densest cell holds more than `mass`, the region is that cell alone.
+  return t === Infinity ? densest : t;
+}
