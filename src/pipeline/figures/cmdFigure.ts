@@ -32,7 +32,11 @@ export function cmdDomain(colour: ArrayLike<number>, mag: ArrayLike<number>): { 
   const range = (a: ArrayLike<number>): [number, number] => {
     let lo = Infinity;
     let hi = -Infinity;
-    for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i])) (lo = Math.min(lo, a[i])), (hi = Math.max(hi, a[i]));
+    for (let i = 0; i < a.length; i++) {
+      if (!Number.isFinite(a[i])) continue;
+      lo = Math.min(lo, a[i]);
+      hi = Math.max(hi, a[i]);
+    }
     const pad = 0.04 * (hi - lo || 1);
     return [lo - pad, hi + pad];
   };
