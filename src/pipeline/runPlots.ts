@@ -90,7 +90,10 @@ export async function buildRunFigures(runDir: string, o: RunFigureOptions = {}):
         if (name === 'cmd') figures.push(cmdFigure(p, stars as StarsTable, setup, { ...common, nIsochrones: o.nIsochrones ?? FIGURE_DEFAULTS.nIsochrones }));
         else {
           const { ppcFigure } = await import('./figures/ppcFigure.js');
-          figures.push(await ppcFigure(p, stars as StarsTable, setup, common));
+          const f = await ppcFigure(p, stars as StarsTable, setup, common);
+          if (typeof f !== 'string') figures.push(f);
+          else if (asked) throw new UsageError(`cannot draw the ppc figure: ${f}`, { hint: 'ask for the other figures' });
+          else skipped.push({ name, reason: f });
         }
         break;
       }

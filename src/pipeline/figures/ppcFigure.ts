@@ -1,10 +1,67 @@
+import type { BandId } from '../../core/bands.js';
 import type { StarsTable } from '../../io/index.js';
+import { cmdPlotSpec } from '../../report/plots/cmdPlot.js';
+import { sideBySideSpec } from '../../report/plots/sideBySide.js';
+import { describeThinning, thinPoints } from '../../report/plots/thinPoints.js';
 import type { CmdAxes } from '../isochronePlot.js';
+import { loadForwardModel, posteriorPredictiveCatalogue, type PredictiveCatalogue } from '../posteriorPredictive.js';
 import type { RunPosterior } from '../runPosterior.js';
 import type { StellarSetup } from '../stellarModel.js';
+import { colourTitle } from './cmdAxes.js';
+import { cmdDomain, starColourMag } from './cmdFigure.js';
 import type { RunFigure } from './runFigure.js';
 
-/** Placeholder until the forward model lands on main. */
-export async function ppcFigure(_p: RunPosterior, _stars: StarsTable, _setup: StellarSetup, _o: { axes: CmdAxes; seed: number; maxPoints: number }): Promise<RunFigure> {
-  throw new Error('not yet');
+const PANEL = { width: 330, height: 460 };
+
+function lawText(b: BandId, l: NonNullable<PredictiveCatalogue['errorLaws'][BandId]>): string {
+  return `${b}: ${l.a.toPrecision(2)} + ${l.b.toPrecision(2)} x 10^(0.4 (m - ${l.mRef.toFixed(2)}))`;
+}
+
+/**
+ * The observed CMD beside one simulated from the posterior with the likelihood's forward model, on the
+ * same axes and thinned the same way. Returns the reason instead when this build has no forward model.
+ */
+export async function ppcFigure(p: RunPosterior, stars: StarsTable, setup: StellarSetup, o: { axes: CmdAxes; seed: number; maxPoints: number }): Promise<RunFigure | string> {
+  const simulate = await loadForwardModel();
+  if (!simulate) return 'this build of coeval has no forward model (the likelihood stage), which the posterior-predictive catalogue needs';
+  const fit = p.fit!;
+  const sim = await posteriorPredictiveCatalogue(p, stars, setup, { seed: o.seed, simulate });
+  const obs = starColourMag(stars, o.axes);
+  const idx = (b: BandId): Float64Array => sim.mag[sim.bands.indexOf(b)];
+  const simColour = idx(o.axes.blue).map((v, i) => v - idx(o.axes.red)[i]);
+  const simMag = Float64Array.from(idx(o.axes.mag));
+  // One pair of axes for both panels: the range of both catalogues.
+  const dom = cmdDomain(Float64Array.from([...obs.colour, ...simColour]), Float64Array.from([...obs.mag, ...simMag]));
+  const thinObs = thinPoints(obs.colour, obs.mag, { maxPoints: o.maxPoints, seed: o.seed });
+  const thinSim = thinPoints(simColour, simMag, { maxPoints: o.maxPoints, seed: o.seed + 1 });
+  const panel = (title: string, colour: ArrayLike<number>, mag: ArrayLike<number>, keep: Int32Array) =>
+    cmdPlotSpec({
+      title,
+      xTitle: colourTitle(o.axes),
+      yTitle: o.axes.mag,
+      xDomain: dom.x,
+      yDomain: dom.y,
+      ...PANEL,
+      stars: { colour: Array.from(keep, (i) => colour[i]), mag: Array.from(keep, (i) => mag[i]) },
+    });
+  const perDraw = Math.round(sim.nStars / sim.nDraws);
+  const laws = sim.bands.map((b) => lawText(b, sim.errorLaws[b]!)).join('; ');
+  const lawSource = sim.bands.every((b) => sim.errorLaws[b]!.source === 'config') ? 'from the config' : 'fitted to the catalogue\'s errors where the config gives none';
+  const nField = sim.component.reduce((s, c) => s + (c === 2 ? 1 : 0), 0);
+  return {
+    name: 'ppc',
+    title: 'Posterior-predictive check',
+    caption:
+      `Left: the ${stars.nStars.toLocaleString('en-US')} observed stars (${describeThinning(thinObs)}). ` +
+      `Right: ${sim.nStars.toLocaleString('en-US')} stars simulated with the likelihood's own forward model at ${sim.nDraws} draws from the posterior (about ${perDraw.toLocaleString('en-US')} each; ${nField.toLocaleString('en-US')} of them field stars), drawn the same way (${describeThinning(thinSim)}). ` +
+      `Same axes; the selection window is ${sim.limitsSource === 'config' ? 'the config\'s limits' : 'the observed range in each band'}, the IMF, binaries and completeness are the config's, and the photometric errors follow sigma(m) ${lawSource} (${laws}). ` +
+      `If the model describes the data, the two panels look alike: compare the width of the main sequence, the turnoff and subgiant branch, the giant branch, the binary sequence and the field, and how many stars each holds. Stars that no panel on the right reproduces (e.g. blue stragglers) are outside the model. Model: ${fit.model.name}.`,
+    spec: sideBySideSpec(
+      [
+        panel(`observed (${stars.nStars.toLocaleString('en-US')} stars)`, obs.colour, obs.mag, thinObs.index),
+        panel(`simulated from the posterior (${sim.nStars.toLocaleString('en-US')} stars)`, simColour, simMag, thinSim.index),
+      ],
+      { title: 'Observed and posterior-predictive CMDs', subtitle: `stellar model: ${fit.model.name}`, widthPx: 2 * PANEL.width },
+    ),
+  };
 }

@@ -78,7 +78,7 @@ function marginalPanel(p: CornerParameter, range: [number, number], size: number
 function jointPanel(px: CornerParameter, py: CornerParameter, xr: [number, number], yr: [number, number], size: number, showY: boolean, showX: boolean): object {
   const g = smoothedHistogram2d(px.draws, py.draws, xr, yr, 40, 1.2);
   // The 95% region first, then the 68% one on top; a hole in a region is painted in the colour beneath it.
-  const rings: { x: number; y: number; i: number; id: number; fill: string; region: string }[] = [];
+  const rings: { x: number; y: number; i: number; id: number; fill: string; region: string; hole: boolean }[] = [];
   const levels: [string, number, string, string][] = [
     ['95%', hdrThreshold(g, 0.95), FILL_95, 'white'],
     ['68%', hdrThreshold(g, 0.68), FILL_68, FILL_95],
@@ -89,7 +89,7 @@ function jointPanel(px: CornerParameter, py: CornerParameter, xr: [number, numbe
       polygon.forEach((ring, r) => {
         const id = ringId++;
         // d3-contour puts cell (ix, iy) at (ix + 0.5, iy + 0.5): grid coordinate gx is x0 + gx dx.
-        ring.forEach(([gx, gy], i) => rings.push({ x: g.x0 + gx * g.dx, y: g.y0 + gy * g.dy, i, id, fill: r === 0 ? fill : holeFill, region }));
+        ring.forEach(([gx, gy], i) => rings.push({ x: g.x0 + gx * g.dx, y: g.y0 + gy * g.dy, i, id, fill: r === 0 ? fill : holeFill, region, hole: r > 0 }));
       });
     }
   }

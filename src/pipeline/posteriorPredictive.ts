@@ -1,0 +1,196 @@
+/**
+ * A posterior-predictive catalogue: as many stars as the fit used, drawn with the likelihood's own
+ * forward model (likelihood/simulate.ts, `simulateCatalog`) at a few posterior draws, each draw
+ * contributing an equal share, so that the parameters' uncertainty shows in the spread. The selection
+ * window, IMF, binaries and completeness come from the run's config; each band's photometric errors
+ * follow sigma(m) = a + b 10^(0.4 (m - m_ref)), from the config's [likelihood.errors] or fitted to the
+ * catalogue's own errors. With per-star membership priors, the field share is their complement's mean.
+ *
+ * The forward model is loaded by path at run time (see loadForwardModel), so that this module builds
+ * whether or not the likelihood stage is present in this build.
+ */
+import type { BandId } from '../core/bands.js';
+import type { ClusterParameterName } from '../core/parameters.js';
+import type { StarsTable } from '../io/index.js';
+import type { ExtinctionModel, IsochroneSource } from '../stellar/index.js';
+import { parameterAt, type RunPosterior } from './runPosterior.js';
+import type { StellarSetup } from './stellarModel.js';
+
+export interface ErrorLawParameters {
+  a: number;
+  b: number;
+  mRef: number;
+}
+
+/** The parts of the forward model's input and output used here (likelihood/simulate.ts). */
+interface ForwardSpec {
+  seed: number;
+  nStars: number;
+  bands: BandId[];
+  theta: { logAgeYr: number; feh: number; dm: number; ebv: number; fBinary: number; fField: number; sigmaExtra: number };
+  errorLaw: Partial<Record<BandId, ErrorLawParameters>>;
+  likelihood: Record<string, unknown>;
+  missingFraction?: Partial<Record<BandId, number>>;
+}
+type SimulateCatalog = (spec: ForwardSpec, source: IsochroneSource, extinction: ExtinctionModel) => { catalog: { nStars: number; mag: Float64Array[] }; truth: { component: Uint8Array } };
+
+/**
+ * The likelihood stage's forward model, or undefined when this build has none. Loaded by a computed path
+ * on purpose: the PPC is the only part of the report that needs the likelihood, and the rest works without.
+ */
+export async function loadForwardModel(): Promise<SimulateCatalog | undefined> {
+  try {
+    const mod = (await import(new URL('../likelihood/index.js', import.meta.url).href)) as { simulateCatalog?: SimulateCatalog };
+    return mod.simulateCatalog;
+  } catch {
+    return undefined;
+  }
+}
+
+export interface PredictiveCatalogue {
+  bands: BandId[];
+  /** mag[b][i], in `bands` order; NaN where a band is missing (as often as in the observed catalogue). */
+  mag: Float64Array[];
+  nStars: number;
+  /** Posterior draws used, and the stars each contributed. */
+  nDraws: number;
+  /** 0 single, 1 binary, 2 field (the forward model's labels). */
+  component: Uint8Array;
+  /** Where each band's error law came from. */
+  errorLaws: Partial<Record<BandId, ErrorLawParameters & { source: 'config' | 'fitted' }>>;
+  /** Where the window came from. */
+  limitsSource: 'config' | 'catalogue';
+}
+
+/**
+ * Least-squares a, b >= 0 of sigma = a + b 10^(0.4 (m - mRef)) over the stars' magnitudes and errors,
+ * with mRef the faint limit. Used for the predictive catalogue only, where the typical error at each
+ * magnitude is what matters.
+ */
+export function fitErrorLaw(mag: ArrayLike<number>, err: ArrayLike<number>, mRef: number): ErrorLawParameters {
+  let n = 0;
+  let se = 0;
+  let see = 0;
+  let ss = 0;
+  let sse = 0;
+  for (let i = 0; i < mag.length; i++) {
+    if (!Number.isFinite(mag[i]) || !Number.isFinite(err[i]) || err[i] <= 0) continue;
+    const e = Math.pow(10, 0.4 * (mag[i] - mRef));
+    n++;
+    se += e;
+    see += e * e;
+    ss += err[i];
+    sse += err[i] * e;
+  }
+  if (n === 0) return { a: 0.01, b: 0, mRef };
+  const det = n * see - se * se;
+  let a = det > 0 ? (ss * see - se * sse) / det : ss / n;
+  let b = det > 0 ? (n * sse - se * ss) / det : 0;
+  if (a < 0) [a, b] = [0, see > 0 ? sse / see : 0];
+  if (b < 0) [a, b] = [ss / n, 0];
+  return { a, b, mRef };
+}
+
+function finiteRange(a: ArrayLike<number>): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < a.length; i++) {
+    if (!Number.isFinite(a[i])) continue;
+    lo = Math.min(lo, a[i]);
+    hi = Math.max(hi, a[i]);
+  }
+  return [lo, hi];
+}
+
+interface LikelihoodConfigSubset {
+  imf?: string;
+  binary_fraction_of?: string;
+  binaries?: { q_min?: number; q_slope?: number };
+  limits?: Partial<Record<BandId, { bright?: number; faint?: number }>>;
+  completeness?: { band: BandId; magnitudes: number[]; fractions: number[] };
+  errors?: Partial<Record<BandId, { a: number; b: number; m_ref: number }>>;
+}
+
+export async function posteriorPredictiveCatalogue(
+  p: RunPosterior,
+  stars: StarsTable,
+  setup: StellarSetup,
+  o: { seed: number; nDraws?: number; simulate: SimulateCatalog },
+): Promise<PredictiveCatalogue> {
+  const fit = p.fit!;
+  const bands = fit.bands;
+  const lc = ((fit.config as unknown as { likelihood?: LikelihoodConfigSubset }).likelihood ?? {}) as LikelihoodConfigSubset;
+  // The window: the config's limits where given, else the catalogue's own range (as the likelihood does).
+  const limits: Partial<Record<BandId, { bright: number; faint: number }>> = {};
+  let limitsSource: PredictiveCatalogue['limitsSource'] = 'config';
+  const errorLaws: PredictiveCatalogue['errorLaws'] = {};
+  const missingFraction: Partial<Record<BandId, number>> = {};
+  for (const b of bands) {
+    const m = stars.mag[b] as Float64Array;
+    const [lo, hi] = finiteRange(m);
+    const given = lc.limits?.[b];
+    if (given?.bright === undefined || given?.faint === undefined) limitsSource = 'catalogue';
+    limits[b] = { bright: given?.bright ?? lo, faint: given?.faint ?? hi };
+    const e = lc.errors?.[b];
+    errorLaws[b] = e ? { a: e.a, b: e.b, mRef: e.m_ref, source: 'config' } : { ...fitErrorLaw(m, stars.err[b] as Float64Array, limits[b]!.faint), source: 'fitted' };
+    let missing = 0;
+    for (let i = 0; i < m.length; i++) if (!Number.isFinite(m[i])) missing++;
+    missingFraction[b] = missing / Math.max(1, m.length);
+  }
+  const likelihood: Record<string, unknown> = {
+    ...(lc.imf ? { imf: lc.imf } : {}),
+    ...(lc.binary_fraction_of ? { binaryFractionOf: lc.binary_fraction_of } : {}),
+    ...(lc.binaries?.q_min !== undefined ? { qMin: lc.binaries.q_min } : {}),
+    ...(lc.binaries?.q_slope !== undefined ? { qGamma: lc.binaries.q_slope } : {}),
+    ...(lc.completeness ? { completeness: { band: lc.completeness.band, mag: [...lc.completeness.magnitudes], fraction: [...lc.completeness.fractions] } } : {}),
+    limits,
+  };
+  // With membership priors the likelihood uses them instead of f_field: the expected field share is 1 - mean(p).
+  let priorSum = 0;
+  let priorN = 0;
+  for (const v of stars.membershipPrior) {
+    if (!Number.isFinite(v)) continue;
+    priorSum += v;
+    priorN++;
+  }
+  const fieldFromPriors = priorN > 0 ? 1 - priorSum / priorN : undefined;
+
+  const total = p.nChains * p.nDraws;
+  const k = Math.max(1, Math.min(o.nDraws ?? 20, total, stars.nStars));
+  const n = stars.nStars;
+  const mag = bands.map(() => new Float64Array(n));
+  const component = new Uint8Array(n);
+  let filled = 0;
+  const value = (name: ClusterParameterName, i: number, fallback: number): number => parameterAt(p, name, i) ?? fallback;
+  for (let j = 0; j < k; j++) {
+    // Draws spread evenly through the pooled kept draws (chains in turn), stars split as evenly as possible.
+    const i = Math.floor(((j + 0.5) * total) / k);
+    const share = Math.floor(((j + 1) * n) / k) - Math.floor((j * n) / k);
+    if (share === 0) continue;
+    const sim = o.simulate(
+      {
+        seed: (o.seed * 7919 + j) >>> 0,
+        nStars: share,
+        bands,
+        theta: {
+          logAgeYr: value('log_age', i, NaN),
+          feh: value('feh', i, NaN),
+          dm: value('dm', i, NaN),
+          ebv: value('ebv', i, NaN),
+          fBinary: value('f_binary', i, 0),
+          fField: fieldFromPriors ?? value('f_field', i, 0),
+          sigmaExtra: value('sigma_extra', i, 0),
+        },
+        errorLaw: Object.fromEntries(bands.map((b) => [b, { a: errorLaws[b]!.a, b: errorLaws[b]!.b, mRef: errorLaws[b]!.mRef }])),
+        likelihood,
+        missingFraction,
+      },
+      setup.source,
+      setup.extinction,
+    );
+    bands.forEach((_, bi) => mag[bi].set(sim.catalog.mag[bi].subarray(0, share), filled));
+    component.set(sim.truth.component.subarray(0, share), filled);
+    filled += share;
+  }
+  return { bands, mag, nStars: filled, nDraws: k, component, errorLaws, limitsSource };
+}
