@@ -28,7 +28,7 @@ export function parseCmdAxes(colour: string, mag: string, bands: readonly BandId
  * magnitude: the giant-branch tip and the zero-age horizontal branch share an initial mass but are far
  * apart in the CMD, and must not be joined by a line.
  */
-export function isochroneCurve(t: IsochroneTable, axes: CmdAxes, label: string, opacity?: number): CmdCurve {
+export function isochroneCurve(t: IsochroneTable, axes: CmdAxes, label: string, style: { opacity?: number; width?: number } = {}): CmdCurve {
   const iso = t.isochrone;
   const idx = (b: BandId): number => iso.bands.indexOf(b);
   const blue = t.mags[idx(axes.blue)];
@@ -41,7 +41,7 @@ export function isochroneCurve(t: IsochroneTable, axes: CmdAxes, label: string, 
     if (iso.phase[k] !== iso.phase[k - 1] && Math.abs(mag[k] - mag[k - 1]) > 0.2) seg++;
     segment[k] = seg;
   }
-  return { label, colour, mag, segment, ...(opacity !== undefined ? { opacity } : {}) };
+  return { label, colour, mag, segment, ...style };
 }
 
 /** A quick CMD of one isochrone, one curve per evolutionary phase so that the jump to the HB is not drawn. */

@@ -63,31 +63,35 @@ export interface PredictiveCatalogue {
 }
 
 /**
- * Least-squares a, b >= 0 of sigma = a + b 10^(0.4 (m - mRef)) over the stars' magnitudes and errors,
- * with mRef the faint limit. Used for the predictive catalogue only, where the typical error at each
- * magnitude is what matters.
+ * a, b >= 0 of sigma = a + b 10^(0.4 (m - mRef)) fitted to the stars' magnitudes and errors, with mRef the
+ * faint limit, by least squares in relative terms (each residual divided by the star's sigma). Relative
+ * residuals let the bright stars set a and the faint ones b; plain residuals let the many faint stars,
+ * whose observed magnitudes scatter by their large errors, pull b down and a up (regression dilution).
+ * Used for the predictive catalogue only, where the typical error at each magnitude is what matters.
  */
 export function fitErrorLaw(mag: ArrayLike<number>, err: ArrayLike<number>, mRef: number): ErrorLawParameters {
-  let n = 0;
-  let se = 0;
-  let see = 0;
-  let ss = 0;
-  let sse = 0;
+  // Weighted normal equations for sigma ~ a + b e with weights w = 1 / sigma^2.
+  let sw = 0;
+  let swe = 0;
+  let swee = 0;
+  let sws = 0;
+  let swse = 0;
   for (let i = 0; i < mag.length; i++) {
     if (!Number.isFinite(mag[i]) || !Number.isFinite(err[i]) || err[i] <= 0) continue;
     const e = Math.pow(10, 0.4 * (mag[i] - mRef));
-    n++;
-    se += e;
-    see += e * e;
-    ss += err[i];
-    sse += err[i] * e;
+    const w = 1 / (err[i] * err[i]);
+    sw += w;
+    swe += w * e;
+    swee += w * e * e;
+    sws += w * err[i];
+    swse += w * err[i] * e;
   }
-  if (n === 0) return { a: 0.01, b: 0, mRef };
-  const det = n * see - se * se;
-  let a = det > 0 ? (ss * see - se * sse) / det : ss / n;
-  let b = det > 0 ? (n * sse - se * ss) / det : 0;
-  if (a < 0) [a, b] = [0, see > 0 ? sse / see : 0];
-  if (b < 0) [a, b] = [ss / n, 0];
+  if (sw === 0) return { a: 0.01, b: 0, mRef };
+  const det = sw * swee - swe * swe;
+  let a = det > 0 ? (sws * swee - swe * swse) / det : sws / sw;
+  let b = det > 0 ? (sw * swse - swe * sws) / det : 0;
+  if (a < 0) [a, b] = [0, swee > 0 ? swse / swee : 0];
+  if (b < 0) [a, b] = [sws / sw, 0];
   return { a, b, mRef };
 }
 

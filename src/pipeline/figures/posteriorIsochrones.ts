@@ -44,9 +44,9 @@ function isochroneParameters(get: (n: ClusterParameterName) => number | undefine
 
 export function posteriorIsochrones(p: RunPosterior, setup: StellarSetup, axes: CmdAxes, o: { nDraws: number; seed: number }): PosteriorIsochrones {
   const bands = axesBands(axes);
-  const make = (q: Record<'log_age' | 'feh' | 'dm' | 'ebv', number>, label: string, opacity?: number): CmdCurve =>
-    isochroneCurve(isochroneTable(setup.source, setup.extinction, { logAgeYr: q.log_age, feh: q.feh, bands, dm: q.dm, ebv: q.ebv }), axes, label, opacity);
-  const median = make(isochroneParameters((n) => parameterMedian(p, n), p.run.runDir), 'posterior medians');
+  const make = (q: Record<'log_age' | 'feh' | 'dm' | 'ebv', number>, label: string, style: { opacity?: number; width?: number } = {}): CmdCurve =>
+    isochroneCurve(isochroneTable(setup.source, setup.extinction, { logAgeYr: q.log_age, feh: q.feh, bands, dm: q.dm, ebv: q.ebv }), axes, label, style);
+  const median = make(isochroneParameters((n) => parameterMedian(p, n), p.run.runDir), 'posterior medians', { width: 1.2 });
   const total = p.nChains * p.nDraws;
   const rand = mt19937.factory({ seed: o.seed >>> 0 });
   const n = Math.min(o.nDraws, total);
@@ -55,7 +55,7 @@ export function posteriorIsochrones(p: RunPosterior, setup: StellarSetup, axes: 
   for (let k = 0; k < n; k++) {
     const i = rand() % total;
     try {
-      draws.push(make(isochroneParameters((name) => parameterAt(p, name, i), p.run.runDir), `${n} posterior draws`, n > 30 ? 0.12 : 0.25));
+      draws.push(make(isochroneParameters((name) => parameterAt(p, name, i), p.run.runDir), `${n} posterior draws`, { opacity: n > 30 ? 0.15 : 0.3, width: 0.8 }));
     } catch (err) {
       // A draw outside the model's domain (possible only at the edge of a prior wider than the model).
       if (err instanceof CoevalError && err.kind === 'model') failed++;

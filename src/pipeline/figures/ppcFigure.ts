@@ -8,7 +8,7 @@ import { loadForwardModel, posteriorPredictiveCatalogue, type PredictiveCatalogu
 import type { RunPosterior } from '../runPosterior.js';
 import type { StellarSetup } from '../stellarModel.js';
 import { colourTitle } from './cmdAxes.js';
-import { cmdDomain, starColourMag } from './cmdFigure.js';
+import { cmdDomain, insideOnly, starColourMag } from './cmdFigure.js';
 import type { RunFigure } from './runFigure.js';
 
 const PANEL = { width: 330, height: 460 };
@@ -30,10 +30,14 @@ export async function ppcFigure(p: RunPosterior, stars: StarsTable, setup: Stell
   const idx = (b: BandId): Float64Array => sim.mag[sim.bands.indexOf(b)];
   const simColour = idx(o.axes.blue).map((v, i) => v - idx(o.axes.red)[i]);
   const simMag = Float64Array.from(idx(o.axes.mag));
-  // One pair of axes for both panels: the range of both catalogues.
-  const dom = cmdDomain(Float64Array.from([...obs.colour, ...simColour]), Float64Array.from([...obs.mag, ...simMag]));
-  const thinObs = thinPoints(obs.colour, obs.mag, { maxPoints: o.maxPoints, seed: o.seed });
-  const thinSim = thinPoints(simColour, simMag, { maxPoints: o.maxPoints, seed: o.seed + 1 });
+  // Both panels on the observed CMD's axes (cmdFigure's); simulated stars beyond them are counted, not drawn.
+  const membership = stars.pSingle.map((v, i) => v + stars.pBinary[i]);
+  const dom = cmdDomain(obs.colour, obs.mag, membership);
+  const simInside = insideOnly(simColour, simMag, dom);
+  let outside = 0;
+  for (let i = 0; i < simColour.length; i++) if (Number.isFinite(simColour[i]) && Number.isFinite(simMag[i]) && !Number.isFinite(simInside[i])) outside++;
+  const thinObs = thinPoints(insideOnly(obs.colour, obs.mag, dom), obs.mag, { maxPoints: o.maxPoints, seed: o.seed });
+  const thinSim = thinPoints(simInside, simMag, { maxPoints: o.maxPoints, seed: o.seed + 1 });
   const panel = (title: string, colour: ArrayLike<number>, mag: ArrayLike<number>, keep: Int32Array) =>
     cmdPlotSpec({
       title,
@@ -52,9 +56,9 @@ export async function ppcFigure(p: RunPosterior, stars: StarsTable, setup: Stell
     name: 'ppc',
     title: 'Posterior-predictive check',
     caption:
-      `Left: the ${stars.nStars.toLocaleString('en-US')} observed stars (${describeThinning(thinObs)}). ` +
+      `Left: the ${stars.nStars.toLocaleString('en-US')} observed stars (${describeThinning(thinObs)}${dom.outside > 0 ? `; ${dom.outside.toLocaleString('en-US')} lie beyond the axes` : ''}). ` +
       `Right: ${sim.nStars.toLocaleString('en-US')} stars simulated with the likelihood's own forward model at ${sim.nDraws} draws from the posterior (about ${perDraw.toLocaleString('en-US')} each; ${nField.toLocaleString('en-US')} of them field stars), drawn the same way (${describeThinning(thinSim)}). ` +
-      `Same axes; the selection window is ${sim.limitsSource === 'config' ? 'the config\'s limits' : 'the observed range in each band'}, the IMF, binaries and completeness are the config's, and the photometric errors follow sigma(m) ${lawSource} (${laws}). ` +
+      `Same axes as the observed CMD${outside > 0 ? ` (${outside.toLocaleString('en-US')} simulated stars fall beyond them and are not shown)` : ''}. The selection window is ${sim.limitsSource === 'config' ? 'the config\'s limits' : 'the observed range in each band'}, the IMF, binaries and completeness are the config's, and the photometric errors follow sigma(m) ${lawSource} (${laws}). ` +
       `If the model describes the data, the two panels look alike: compare the width of the main sequence, the turnoff and subgiant branch, the giant branch, the binary sequence and the field, and how many stars each holds. Stars that no panel on the right reproduces (e.g. blue stragglers) are outside the model. Model: ${fit.model.name}.`,
     spec: sideBySideSpec(
       [

@@ -10,6 +10,8 @@ export interface CmdCurve {
   segment?: ArrayLike<number>;
   /** Line opacity, for posterior bands drawn as many faint lines. */
   opacity?: number;
+  /** Line width in pixels (default 1.4). */
+  width?: number;
 }
 
 /** Stars to draw as points, optionally shaded by a value in [0, 1] such as cluster membership. */
@@ -47,8 +49,12 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
   if (o.stars) {
     const s = o.stars;
     const values = [];
+    // Stars beyond fixed axis ranges are left out, not just clipped: they would only bloat the SVG (and
+    // points far outside the canvas make resvg 2.6.2 panic when rasterising).
+    const inX = (v: number): boolean => !o.xDomain || (v >= Math.min(...o.xDomain) && v <= Math.max(...o.xDomain));
+    const inY = (v: number): boolean => !o.yDomain || (v >= Math.min(...o.yDomain) && v <= Math.max(...o.yDomain));
     for (let i = 0; i < s.mag.length; i++) {
-      if (Number.isFinite(s.mag[i]) && Number.isFinite(s.colour[i])) values.push({ x: s.colour[i], y: s.mag[i], s: s.shade ? s.shade[i] : 1 });
+      if (Number.isFinite(s.mag[i]) && Number.isFinite(s.colour[i]) && inX(s.colour[i]) && inY(s.mag[i])) values.push({ x: s.colour[i], y: s.mag[i], s: s.shade ? s.shade[i] : 1 });
     }
     layers.push({
       data: { values },
@@ -74,19 +80,20 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
       if (!labels.includes(c.label)) labels.push(c.label);
       for (let i = 0; i < c.mag.length; i++) {
         if (Number.isFinite(c.mag[i]) && Number.isFinite(c.colour[i])) {
-          values.push({ x: c.colour[i], y: c.mag[i], i, line: `${k}:${c.segment ? c.segment[i] : 0}`, label: c.label, a: c.opacity ?? 1 });
+          values.push({ x: c.colour[i], y: c.mag[i], i, line: `${k}:${c.segment ? c.segment[i] : 0}`, label: c.label, a: c.opacity ?? 1, w: c.width ?? 1.4 });
         }
       }
     }
     layers.push({
       data: { values },
-      mark: { type: 'line', strokeWidth: 1.4, clip: true },
+      mark: { type: 'line', clip: true },
       encoding: {
         x,
         y,
         order: { field: 'i', type: 'quantitative' },
         detail: { field: 'line', type: 'nominal' },
         opacity: { field: 'a', type: 'quantitative', scale: null, legend: null },
+        strokeWidth: { field: 'w', type: 'quantitative', scale: null, legend: null },
         color: {
           field: 'label',
           type: 'nominal',
