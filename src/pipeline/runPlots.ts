@@ -34,7 +34,7 @@ export interface RunFigureOptions {
   seed?: number;
 }
 
-export const FIGURE_DEFAULTS = { nIsochrones: 80, maxPoints: 6000, seed: 1 } as const;
+export const FIGURE_DEFAULTS = { nIsochrones: 80, maxPoints: 5000, seed: 1 } as const;
 
 export interface RenderedFigure extends Omit<RunFigure, 'spec'> {
   svg: string;

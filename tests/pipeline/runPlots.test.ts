@@ -103,9 +103,10 @@ describe('figures of a fit run', async () => {
     // Bright at the top: the tick label 13 sits above (smaller y) the tick label 22.
     const tickY = (label: string): number => Number(new RegExp(`translate\\(-?[\\d.]+,([\\d.]+)\\)"[^>]*>${label}<`).exec(svg)?.[1] ?? NaN);
     expect(tickY('13')).toBeLessThan(tickY('22'));
-    const circles = (svg.match(/d="M1\.41,0A1\.41/g) ?? []).length + (svg.match(/d="M1\.6,0A1\.6/g) ?? []).length;
-    expect(circles).toBeGreaterThan(0);
     const caption = r.figures.find((f) => f.name === 'cmd')!.caption;
+    // One square per star drawn, as many as the caption says.
+    const squares = (svg.match(/<path transform="translate\([^"]*\)" d="M-[\d.]+,-[\d.]+h/g) ?? []).length;
+    expect(caption).toContain(`(${squares.toLocaleString('en-US')} of `);
     // The fixture's field spreads wider in colour than its members: the axes follow the members.
     expect(caption).toMatch(/\(\d[\d,]* of \d[\d,]* stars drawn: .*; \d[\d,]* stars lie beyond the colour range of the likely members/);
     expect(caption).toContain(MODEL);

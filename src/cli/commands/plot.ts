@@ -12,7 +12,7 @@ export const plotCommand: CommandSpec = {
       .option('mag', { type: 'string', describe: 'CMD magnitude, e.g. V (default: the redder band of the colour, or G)' })
       .option('discard', { type: 'number', describe: 'steps to drop as burn-in (default: 2 tau_max, as coeval diagnose)' })
       .option('isochrones', { type: 'number', describe: 'posterior draws whose isochrones the CMD shows (default 80)' })
-      .option('max-points', { type: 'number', describe: 'most stars drawn per CMD panel; crowded regions are thinned (default 6000)' })
+      .option('max-points', { type: 'number', describe: 'most stars drawn per CMD panel; crowded regions are thinned (default 5000)' })
       .option('seed', { type: 'number', describe: 'seed for the draws shown and the posterior-predictive catalogue (default 1)' }),
   async run(args, ctx) {
     const { plotRun, parseWhich } = await import('../../pipeline/runPlots.js');

@@ -10,7 +10,7 @@ export const reportCommand: CommandSpec = {
       .option('colour', { type: 'string', describe: 'CMD colour, e.g. B-V (default: the two bluest fitted bands, or BP-RP)' })
       .option('mag', { type: 'string', describe: 'CMD magnitude, e.g. V (default: the redder band of the colour, or G)' })
       .option('discard', { type: 'number', describe: 'steps to drop as burn-in (default: 2 tau_max, as coeval diagnose)' })
-      .option('max-points', { type: 'number', describe: 'most stars drawn per CMD panel; crowded regions are thinned (default 6000)' })
+      .option('max-points', { type: 'number', describe: 'most stars drawn per CMD panel; crowded regions are thinned (default 5000)' })
       .option('seed', { type: 'number', describe: 'seed for the draws shown and the posterior-predictive catalogue (default 1)' }),
   async run(args, ctx) {
     const { reportRun } = await import('../../pipeline/runReport.js');

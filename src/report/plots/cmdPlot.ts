@@ -58,7 +58,7 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
     }
     layers.push({
       data: { values },
-      mark: { type: 'circle', size: values.length > 5000 ? 3 : 8, opacity: 0.6 },
+      mark: { type: 'square', size: values.length > 5000 ? 2.5 : 7, opacity: 0.6, strokeWidth: 0 },
       encoding: {
         x,
         y,
