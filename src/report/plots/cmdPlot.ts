@@ -58,7 +58,8 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
     }
     layers.push({
       data: { values },
-      mark: { type: 'square', size: values.length > 5000 ? 2.5 : 7, opacity: 0.6, strokeWidth: 0 },
+      // Smaller points the more there are (area in square pixels), so that crowded sequences keep their shape.
+      mark: { type: 'square', size: Math.min(8, Math.max(2.5, 8 * Math.sqrt(1000 / Math.max(1, values.length)))), opacity: 0.6, strokeWidth: 0 },
       encoding: {
         x,
         y,

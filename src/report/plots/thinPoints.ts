@@ -1,18 +1,21 @@
 /**
- * Fewer points for a scatter plot of a large catalogue, without losing its sparse parts. The plane is cut
- * into cells; every cell keeps all its stars up to a common cap, and crowded cells keep a random subset of
- * that size. The cap is the largest that keeps the total within `maxPoints`. So giants, blue stragglers and
- * field stars are all drawn, and only the crowded main sequence is thinned, where a drawn point would hide
- * behind its neighbours anyway. Captions should say so (`describeThinning`).
+ * Fewer points for a scatter plot of a large catalogue, without distorting it and without losing its
+ * rare stars. The plane is cut into cells. A cell with at most `sparse` stars keeps them all: the rare
+ * stars that sit nearly alone (bright giants, blue stragglers, outliers). Every other cell keeps the same
+ * random fraction f of its stars (f n rounded up or down at random, so that on average exactly f n), so
+ * densities stay to scale across the main sequence and the field alike. f is chosen so that the total is
+ * at most `maxPoints`. Captions should say what was done (`describeThinning`).
  */
 import mt19937 from '@stdlib/random-base-mt19937';
 
 export interface ThinOptions {
-  /** Most points to keep. */
+  /** Most points to keep (the floors alone may exceed it on a very spread-out catalogue). */
   maxPoints: number;
-  /** Cells across x and y (default 60 x 80: a CMD is taller than wide). */
+  /** Cells across x and y (default 40 x 50: a CMD is taller than wide). */
   nx?: number;
   ny?: number;
+  /** Cells with at most this many stars keep them all (default 2). */
+  sparse?: number;
   seed?: number;
 }
 
@@ -21,15 +24,17 @@ export interface Thinned {
   index: Int32Array;
   /** Points with finite coordinates. */
   finite: number;
-  /** Stars kept per cell at most; Infinity when nothing was thinned. */
-  cap: number;
+  /** Fraction of each crowded cell's stars kept (1 when nothing was thinned). */
+  fraction: number;
+  sparse: number;
   nx: number;
   ny: number;
 }
 
 export function thinPoints(x: ArrayLike<number>, y: ArrayLike<number>, o: ThinOptions): Thinned {
-  const nx = o.nx ?? 60;
-  const ny = o.ny ?? 80;
+  const nx = o.nx ?? 40;
+  const ny = o.ny ?? 50;
+  const sparse = o.sparse ?? 2;
   const finite: number[] = [];
   let x0 = Infinity;
   let x1 = -Infinity;
@@ -43,7 +48,7 @@ export function thinPoints(x: ArrayLike<number>, y: ArrayLike<number>, o: ThinOp
     y0 = Math.min(y0, y[i]);
     y1 = Math.max(y1, y[i]);
   }
-  if (finite.length <= o.maxPoints) return { index: Int32Array.from(finite), finite: finite.length, cap: Infinity, nx, ny };
+  if (finite.length <= o.maxPoints) return { index: Int32Array.from(finite), finite: finite.length, fraction: 1, sparse, nx, ny };
 
   const cellOf = new Int32Array(finite.length);
   const counts = new Int32Array(nx * ny);
@@ -55,19 +60,23 @@ export function thinPoints(x: ArrayLike<number>, y: ArrayLike<number>, o: ThinOp
     cellOf[k] = cy * nx + cx;
     counts[cellOf[k]]++;
   });
-  // The largest cap whose kept total fits (the kept total grows with the cap): bisection.
-  const kept = (cap: number): number => counts.reduce((s, c) => s + Math.min(c, cap), 0);
+  const rand = mt19937.factory({ seed: (o.seed ?? 1) >>> 0 });
+  const u = (): number => (rand() + 0.5) / 4294967296;
+  // Random rounding offsets, one per cell, drawn once: the kept total then grows with f.
+  const offset = Float64Array.from(counts, () => u());
+  const quotas = (f: number): Int32Array => Int32Array.from(counts, (c, k) => (c <= sparse ? c : Math.min(c, Math.floor(f * c + offset[k]))));
+  const total = (q: Int32Array): number => q.reduce((s, c) => s + c, 0);
   let lo = 0;
-  let hi = Math.max(...counts);
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (kept(mid) <= o.maxPoints) lo = mid;
+  let hi = 1;
+  for (let it = 0; it < 50; it++) {
+    const mid = 0.5 * (lo + hi);
+    if (total(quotas(mid)) <= o.maxPoints) lo = mid;
     else hi = mid;
   }
-  const cap = Math.max(1, lo);
-  // Visit the stars in a random order (Fisher-Yates with a seeded generator) and keep each while its
-  // cell is below the cap: a uniform random subset of every crowded cell.
-  const rand = mt19937.factory({ seed: (o.seed ?? 1) >>> 0 });
+  const fraction = lo;
+  const quota = quotas(fraction);
+  // Visit the stars in a random order (Fisher-Yates with the seeded generator) and keep each while its
+  // cell is below its quota: a uniform random subset of every cell.
   const order = Int32Array.from(finite.keys());
   for (let k = order.length - 1; k > 0; k--) {
     const j = rand() % (k + 1);
@@ -79,17 +88,21 @@ export function thinPoints(x: ArrayLike<number>, y: ArrayLike<number>, o: ThinOp
   const keep: number[] = [];
   for (const k of order) {
     const c = cellOf[k];
-    if (taken[c] < cap) {
+    if (taken[c] < quota[c]) {
       taken[c]++;
       keep.push(finite[k]);
     }
   }
   keep.sort((a, b) => a - b);
-  return { index: Int32Array.from(keep), finite: finite.length, cap, nx, ny };
+  return { index: Int32Array.from(keep), finite: finite.length, fraction, sparse, nx, ny };
 }
 
 /** A caption clause: what was drawn. */
 export function describeThinning(t: Thinned): string {
-  if (!Number.isFinite(t.cap)) return `all ${t.finite.toLocaleString('en-US')} stars drawn`;
-  return `${t.index.length.toLocaleString('en-US')} of ${t.finite.toLocaleString('en-US')} stars drawn: on a ${t.nx} x ${t.ny} grid over the diagram, crowded cells show a random ${t.cap} of their stars and sparser cells all of theirs`;
+  if (t.fraction >= 1) return `all ${t.finite.toLocaleString('en-US')} stars drawn`;
+  const pct = 100 * t.fraction;
+  return (
+    `${t.index.length.toLocaleString('en-US')} of ${t.finite.toLocaleString('en-US')} stars drawn: on a ${t.nx} x ${t.ny} grid over the diagram, every star of the cells holding at most ${t.sparse}, ` +
+    `and a random ${pct >= 1 ? pct.toPrecision(2) : pct.toPrecision(1)}% of the stars of every other cell, so that relative densities are kept and the rarest stars are all shown`
+  );
 }
