@@ -1,5 +1,5 @@
 /**
- * A posterior-predictive catalogue: as many stars as the fit used, drawn with the likelihood's own
+ * A posterior-predictive catalogue: as many stars as the fit used (or `maxStars`), drawn with the likelihood's own
  * forward model (likelihood/simulate.ts, `simulateCatalog`) at a few posterior draws, each draw
  * contributing an equal share, so that the parameters' uncertainty shows in the spread. The selection
  * window, IMF, binaries and completeness come from the run's config; each band's photometric errors
@@ -119,7 +119,7 @@ export async function posteriorPredictiveCatalogue(
   p: RunPosterior,
   stars: StarsTable,
   setup: StellarSetup,
-  o: { seed: number; nDraws?: number; simulate: SimulateCatalog },
+  o: { seed: number; nDraws?: number; maxStars?: number; simulate: SimulateCatalog },
 ): Promise<PredictiveCatalogue> {
   const fit = p.fit!;
   const bands = fit.bands;
@@ -161,7 +161,7 @@ export async function posteriorPredictiveCatalogue(
 
   const total = p.nChains * p.nDraws;
   const k = Math.max(1, Math.min(o.nDraws ?? 20, total, stars.nStars));
-  const n = stars.nStars;
+  const n = Math.min(stars.nStars, o.maxStars ?? Infinity);
   const mag = bands.map(() => new Float64Array(n));
   const component = new Uint8Array(n);
   let filled = 0;
@@ -173,7 +173,7 @@ export async function posteriorPredictiveCatalogue(
     if (share === 0) continue;
     const sim = o.simulate(
       {
-        seed: (o.seed * 7919 + j) >>> 0,
+        seed: ((o.seed * 7919 + j) >>> 0) || 1,
         nStars: share,
         bands,
         theta: {

@@ -146,6 +146,14 @@ describe('figures of a fit run', async () => {
     });
   });
 
+  it.runIf(forward)('PPC of a catalogue larger than the cap: as many observed stars, chosen at random, beside the simulated ones', async () => {
+    const c = await buildRunFigures(fitRun, { which: ['ppc'], ppcStars: 600, maxPoints: 300, seed: 2 });
+    const text = svgText(c.figures[0].svg);
+    expect(text).toContain('observed (random 600 of 1,500)');
+    expect(text).toContain('simulated from the posterior (600 stars)');
+    expect(c.figures[0].caption).toMatch(/^Left: a random 600 of the 1,500 observed stars, as many as were simulated/);
+  });
+
   it.runIf(!forward)('PPC is skipped, with the reason, when this build has no forward model', () => {
     expect(r.skipped).toEqual([{ name: 'ppc', reason: expect.stringMatching(/no forward model/) }]);
   });
@@ -243,6 +251,7 @@ describe('coeval plot and coeval report', () => {
     expect(existsSync(join(testbedRun, 'plots', 'tau.svg'))).toBe(true);
     expectUserError(runCli(['plot', testbedRun, '--which', 'cmd']), 2, /usage error at .*testbed: cannot draw the cmd figure: the run was not made by `coeval fit`/);
     expectUserError(runCli(['plot', testbedRun, '--which', 'corner,hr']), 2, /unknown figure "hr"/, /expected: names among corner, trace, tau, cmd, ppc/);
+    expectUserError(runCli(['plot', testbedRun, '--seed', '0']), 2, /--seed must be a whole number >= 1, got 0/);
   });
 
   it('report prints the path of report.html', () => {

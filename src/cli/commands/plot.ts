@@ -13,7 +13,8 @@ export const plotCommand: CommandSpec = {
       .option('discard', { type: 'number', describe: 'steps to drop as burn-in (default: 2 tau_max, as coeval diagnose)' })
       .option('isochrones', { type: 'number', describe: 'posterior draws whose isochrones the CMD shows (default 80)' })
       .option('max-points', { type: 'number', describe: 'most stars drawn per CMD panel; crowded regions are thinned (default 5000)' })
-      .option('seed', { type: 'number', describe: 'seed for the draws shown and the posterior-predictive catalogue (default 1)' }),
+      .option('ppc-stars', { type: 'number', describe: 'most stars in the posterior-predictive catalogue; a larger catalogue is compared with as many of its stars, chosen at random (default 50000)' })
+      .option('seed', { type: 'number', describe: 'seed for the draws shown and the posterior-predictive catalogue, a whole number >= 1 (default 1)' }),
   async run(args, ctx) {
     const { plotRun, parseWhich } = await import('../../pipeline/runPlots.js');
     const r = await plotRun(String(args.run_dir), {
@@ -25,6 +26,7 @@ export const plotCommand: CommandSpec = {
       nIsochrones: args.isochrones as number | undefined,
       maxPoints: args['max-points'] as number | undefined,
       seed: args.seed as number | undefined,
+      ppcStars: args['ppc-stars'] as number | undefined,
     });
     for (const w of r.written) ctx.out.result([w.svgPath, w.pngPath].filter(Boolean).join('\n'));
     for (const s of r.skipped) ctx.out.info(`skipped ${s.name}: ${s.reason}`);

@@ -11,7 +11,8 @@ export const reportCommand: CommandSpec = {
       .option('mag', { type: 'string', describe: 'CMD magnitude, e.g. V (default: the redder band of the colour, or G)' })
       .option('discard', { type: 'number', describe: 'steps to drop as burn-in (default: 2 tau_max, as coeval diagnose)' })
       .option('max-points', { type: 'number', describe: 'most stars drawn per CMD panel; crowded regions are thinned (default 5000)' })
-      .option('seed', { type: 'number', describe: 'seed for the draws shown and the posterior-predictive catalogue (default 1)' }),
+      .option('ppc-stars', { type: 'number', describe: 'most stars in the posterior-predictive catalogue; a larger catalogue is compared with as many of its stars, chosen at random (default 50000)' })
+      .option('seed', { type: 'number', describe: 'seed for the draws shown and the posterior-predictive catalogue, a whole number >= 1 (default 1)' }),
   async run(args, ctx) {
     const { reportRun } = await import('../../pipeline/runReport.js');
     const { parseWhich } = await import('../../pipeline/runPlots.js');
@@ -22,6 +23,7 @@ export const reportCommand: CommandSpec = {
       discard: args.discard as number | undefined,
       maxPoints: args['max-points'] as number | undefined,
       seed: args.seed as number | undefined,
+      ppcStars: args['ppc-stars'] as number | undefined,
     });
     for (const s of r.skipped) ctx.out.info(`skipped ${s.name}: ${s.reason}`);
     ctx.out.info(`report with ${r.figures.length} figure(s) (${r.figures.join(', ')}), ${(r.bytes / 1e6).toFixed(1)} MB`);

@@ -48,7 +48,7 @@ export function posteriorIsochrones(p: RunPosterior, setup: StellarSetup, axes: 
     isochroneCurve(isochroneTable(setup.source, setup.extinction, { logAgeYr: q.log_age, feh: q.feh, bands, dm: q.dm, ebv: q.ebv }), axes, label, style);
   const median = make(isochroneParameters((n) => parameterMedian(p, n), p.run.runDir), 'posterior medians', { width: 1.2 });
   const total = p.nChains * p.nDraws;
-  const rand = mt19937.factory({ seed: o.seed >>> 0 });
+  const rand = mt19937.factory({ seed: (o.seed >>> 0) || 1 });
   const n = Math.min(o.nDraws, total);
   const draws: CmdCurve[] = [];
   let failed = 0;

@@ -60,7 +60,8 @@ export function thinPoints(x: ArrayLike<number>, y: ArrayLike<number>, o: ThinOp
     cellOf[k] = cy * nx + cx;
     counts[cellOf[k]]++;
   });
-  const rand = mt19937.factory({ seed: (o.seed ?? 1) >>> 0 });
+  // mt19937 takes seeds 1 .. 2^32 - 1.
+  const rand = mt19937.factory({ seed: ((o.seed ?? 1) >>> 0) || 1 });
   const u = (): number => (rand() + 0.5) / 4294967296;
   // Random rounding offsets, one per cell, drawn once: the kept total then grows with f.
   const offset = Float64Array.from(counts, () => u());
