@@ -6,7 +6,7 @@
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeFileAtomic } from '../core/atomicWrite.js';
-import { UsageError } from '../core/errors.js';
+import { InputError, UsageError } from '../core/errors.js';
 import { readStarsTable, RUN_LAYOUT, type StarsTable } from '../io/index.js';
 import { renderSvg, svgToPng } from '../report/render.js';
 import { cmdAxesFor } from './figures/cmdAxes.js';
@@ -95,6 +95,14 @@ export async function buildRunFigures(runDir: string, o: RunFigureOptions = {}):
       case 'ppc': {
         const fit = p.fit!;
         const axes = cmdAxesFor(fit.bands, o.colour, o.mag);
+        const lacking = [axes.blue, axes.red, axes.mag].filter((b) => !(stars as StarsTable).bands.includes(b));
+        if (lacking.length > 0) {
+          throw new InputError(`${RUN_LAYOUT.stars} has no magnitudes in ${[...new Set(lacking)].join(', ')}`, {
+            where: { file: (stars as StarsTable).path },
+            expected: `a column per fitted band (${fit.bands.join(', ')})`,
+            hint: 'run the fit again, or choose other bands with --colour and --mag',
+          });
+        }
         setup ??= await runStellarSetup(fit);
         const common = { axes, seed: o.seed ?? FIGURE_DEFAULTS.seed, maxPoints: o.maxPoints ?? FIGURE_DEFAULTS.maxPoints };
         if (name === 'cmd') figures.push(cmdFigure(p, stars as StarsTable, setup, { ...common, nIsochrones: o.nIsochrones ?? FIGURE_DEFAULTS.nIsochrones }));
