@@ -286,10 +286,10 @@ export class CmdLikelihood {
       for (let b = 0; b < nb; b++) if (this.mask[i] & (1 << b)) s += 1 / (data.err[b][i] * data.err[b][i]);
       if (s > sMax) sMax = s;
     }
-    const span = 0.85;
+    const span = 1.02;
     const need = (span * Math.sqrt(sMax)) / o.qStepSigma;
     let levels = 1;
-    while (8 * (1 << (levels - 1)) < need && levels < 7) levels++;
+    while (32 * (1 << (levels - 1)) < need && levels < 5) levels++;
     this.qGrid = new QGrid({ qMin: o.qMin, gamma: o.qGamma }, levels);
     this.singleIndex = new Array(nb).fill(undefined);
     this.binaryIndex = Array.from({ length: levels }, () => new Array(nb).fill(undefined));

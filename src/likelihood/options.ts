@@ -74,7 +74,7 @@ export const DEFAULT_LIKELIHOOD_OPTIONS: LikelihoodOptions = {
   parallax: { use: true, zeroPointMas: -0.017 },
   polylineToleranceMag: 5e-4,
   pruneLogRatio: 14,
-  qStepSigma: 1.5,
+  qStepSigma: 0.5,
   prune: true,
 };
 
