@@ -1,5 +1,6 @@
 import type { BenchGroup } from './harness.js';
+import { likelihoodBench } from './likelihood.js';
 import { startupBench } from './startup.js';
 
 /** Every benchmark group; `npm run bench <name>` runs one. Add new groups here. */
-export const GROUPS: readonly BenchGroup[] = [startupBench];
+export const GROUPS: readonly BenchGroup[] = [startupBench, likelihoodBench];

@@ -3,3 +3,4 @@ export { loadConfig, parseConfigText, resolveConfigPath, runDirectory, type Load
 export { configuredBands, type BandColumns, type PhotometryConfig } from './sections/photometry.js';
 export { CATALOGUE_FORMATS, type CatalogueConfig, type CutConfig } from './sections/catalogue.js';
 export type { OutputConfig } from './sections/output.js';
+export { likelihoodSection, type LikelihoodConfig } from './sections/likelihood.js';

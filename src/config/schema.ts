@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
+import { likelihoodSection } from './sections/likelihood.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
 
@@ -13,6 +14,7 @@ export const configSchema = z.strictObject({
   catalogue: catalogueSection,
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
+  likelihood: likelihoodSection.default(likelihoodSection.parse({})),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;
