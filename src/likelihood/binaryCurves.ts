@@ -41,8 +41,11 @@ export class BinaryCurveBuilder {
     this.cap = cap;
   }
 
-  /** Append the segments of the curves j = 0, step, 2 step, ... (<= grid.n0) to `out` (after reset). */
-  build(poly: ModelPolyline, grid: QGrid, step: number, out: SegmentSet): void {
+  /**
+   * Append the segments of the curves j = 0, step, 2 step, ... (<= grid.n0) to `out` (after reset), for
+   * primaries from polyline node `kStart` on (lower-mass primaries make no binary the likelihood can see).
+   */
+  build(poly: ModelPolyline, grid: QGrid, step: number, out: SegmentSet, kStart = 0): void {
     out.reset();
     const K = poly.n;
     this.ensure(2 * K + 2);
@@ -53,7 +56,7 @@ export class BinaryCurveBuilder {
       const lnQ = grid.lnQ[j];
       // Merge primary nodes with the crossings lnM_i - lnQ.
       let n = 0;
-      let k = 0;
+      let k = kStart;
       let i = 0;
       while (k < K) {
         const cross = i < K ? lnM[i] - lnQ : Infinity;
@@ -61,7 +64,10 @@ export class BinaryCurveBuilder {
         if (cross < lnM[k] - 1e-12) {
           x = cross;
           i++;
-          if (x <= lnM[0]) continue;
+          if (x <= lnM[kStart]) continue;
+          // A secondary more than 7.5 mag fainter than the primary in every band (flux fraction below
+          // 1e-3) bends the sum by under 1e-3 of its own kink: skip that crossing.
+          if (this.secondaryNegligible(poly, i - 1, x, k - 1)) continue;
         } else {
           x = lnM[k];
           if (Math.abs(cross - x) <= 1e-12) i++;
@@ -103,6 +109,11 @@ export class BinaryCurveBuilder {
         out.add(this.nodeMag, u, this.nodeMag, u + 1, c0 + c1 * ta + c2 * ta * ta + Math.log(dt), (c1 + 2 * c2 * ta) * dt, c2 * dt * dt, j);
       }
     }
+  }
+
+  private secondaryNegligible(poly: ModelPolyline, iSecondary: number, lnPrimary: number, kp: number): boolean {
+    for (let b = 0; b < this.nBands; b++) if (poly.mag[b][iSecondary] - poly.magAt(b, lnPrimary, kp) < 7.5) return false;
+    return true;
   }
 
   /** The primary polyline segment containing the curve segment that starts at node u. */

@@ -105,6 +105,9 @@ export class CmdLikelihood {
   private readonly lnNonMember: Float64Array;
   private readonly plxOk: Uint8Array;
   private builtStep = -1;
+  /** Per band: whether every star has it, and its largest squared error. */
+  private readonly bandInAll: Uint8Array;
+  private readonly maxErr2: Float64Array;
   private readonly singleBound = new Float64Array(2);
   private readonly binaryBound: Float64Array[] = Array.from({ length: 8 }, () => new Float64Array(2));
 
@@ -121,6 +124,15 @@ export class CmdLikelihood {
   constructor(data: CatalogArrays, source: IsochroneSource, extinction: ExtinctionModel, options: Partial<LikelihoodOptions> = {}) {
     this.options = withDefaults(options);
     const o = this.options;
+    // A band that no star has carries no information: drop it, so that it cannot change the model polyline.
+    const used = data.bands.map((_, b) => {
+      for (let i = 0; i < data.nStars; i++) if (!Number.isNaN(data.mag[b][i])) return true;
+      return false;
+    });
+    if (used.some((u) => !u)) {
+      this.notes.push(`dropped band(s) ${data.bands.filter((_, b) => !used[b]).join(', ')}: no star has a magnitude there`);
+      data = { ...data, bands: data.bands.filter((_, b) => used[b]), mag: data.mag.filter((_, b) => used[b]), err: data.err.filter((_, b) => used[b]) };
+    }
     this.data = data;
     this.source = source;
     this.extinction = extinction;
@@ -286,10 +298,12 @@ export class CmdLikelihood {
       for (let b = 0; b < nb; b++) if (this.mask[i] & (1 << b)) s += 1 / (data.err[b][i] * data.err[b][i]);
       if (s > sMax) sMax = s;
     }
-    const span = 1.02;
-    const need = (span * Math.sqrt(sMax)) / o.qStepSigma;
+    // Levels from 64 to at most 256 intervals, enough that the smallest errors get steps below qStepSigma.
     let levels = 1;
-    while (32 * (1 << (levels - 1)) < need && levels < 5) levels++;
+    for (; levels < 3; levels++) {
+      const g = new QGrid({ qMin: o.qMin, gamma: o.qGamma }, levels);
+      if (g.maxStepMag[0] * Math.sqrt(sMax) <= o.qStepSigma) break;
+    }
     this.qGrid = new QGrid({ qMin: o.qMin, gamma: o.qGamma }, levels);
     this.singleIndex = new Array(nb).fill(undefined);
     this.binaryIndex = Array.from({ length: levels }, () => new Array(nb).fill(undefined));
@@ -304,36 +318,49 @@ export class CmdLikelihood {
     this.lnZb = new Float64Array(this.patterns.length);
     this.sm = new Float64Array(nb);
     this.siv = new Float64Array(nb);
+    this.bandInAll = new Uint8Array(nb);
+    this.maxErr2 = new Float64Array(nb);
+    for (let b = 0; b < nb; b++) {
+      this.bandInAll[b] = this.patterns.every((m) => m & (1 << b)) ? 1 : 0;
+      for (let i = 0; i < n; i++) {
+        const e = data.err[b][i];
+        if (e * e > this.maxErr2[b]) this.maxErr2[b] = e * e;
+      }
+    }
   }
 
   private errorLaw(band: BandId, b: number): ErrorLaw {
     const law = this.options.errorLaw?.[band];
     if (law) {
-      const mag = new Float64Array(121);
-      const sigma = new Float64Array(121);
-      for (let k = 0; k <= 120; k++) {
-        mag[k] = -10 + 0.3 * k;
+      // Tabulated every 0.02 mag (linear interpolation then errs by under 1e-4 of the exponential term).
+      const mag = new Float64Array(2001);
+      const sigma = new Float64Array(2001);
+      for (let k = 0; k <= 2000; k++) {
+        mag[k] = -10 + 0.02 * k;
         sigma[k] = law.a + law.b * Math.pow(10, 0.4 * (mag[k] - law.mRef));
       }
       return { mag, sigma };
     }
-    // Running medians of the catalogue's errors in bins of equal count (at least 20 stars, at most 60 bins).
-    const idx: number[] = [];
-    for (let i = 0; i < this.nStars; i++) if (!Number.isNaN(this.data.mag[b][i])) idx.push(i);
-    idx.sort((p, q) => this.data.mag[b][p] - this.data.mag[b][q]);
-    const nBins = Math.max(1, Math.min(60, Math.floor(idx.length / 20)));
-    const mag = new Float64Array(nBins);
-    const sigma = new Float64Array(nBins);
-    for (let k = 0; k < nBins; k++) {
-      const from = Math.floor((k * idx.length) / nBins);
-      const to = Math.floor(((k + 1) * idx.length) / nBins);
-      const mid = idx[Math.floor((from + to - 1) / 2)];
-      const errs = idx.slice(from, to).map((i) => this.data.err[b][i]).sort((p, q) => p - q);
-      mag[k] = this.data.mag[b][mid];
-      sigma[k] = errs[Math.floor((errs.length - 1) / 2)];
+    // Medians of the catalogue's errors in 0.25 mag bins (each non-empty bin gives a node at its centre).
+    // Fixed bins keep the law unchanged when the catalogue is permuted or duplicated.
+    const bins = new Map<number, number[]>();
+    for (let i = 0; i < this.nStars; i++) {
+      const m = this.data.mag[b][i];
+      if (Number.isNaN(m)) continue;
+      const k = Math.floor(m / 0.25);
+      let list = bins.get(k);
+      if (!list) bins.set(k, (list = []));
+      list.push(this.data.err[b][i]);
     }
-    if (nBins === 1) return { mag: Float64Array.of(mag[0] - 1, mag[0] + 1), sigma: Float64Array.of(sigma[0], sigma[0]) };
-    for (let k = 1; k < nBins; k++) if (!(mag[k] > mag[k - 1])) mag[k] = mag[k - 1] + 1e-9;
+    const keys = [...bins.keys()].sort((p, q) => p - q);
+    if (keys.length === 0) return { mag: Float64Array.of(0, 1), sigma: Float64Array.of(Number.NaN, Number.NaN) };
+    const mag = Float64Array.from(keys, (k) => 0.25 * (k + 0.5));
+    const sigma = Float64Array.from(keys, (k) => {
+      const e = (bins.get(k) as number[]).sort((p, q) => p - q);
+      const h = e.length >> 1;
+      return e.length % 2 ? e[h] : 0.5 * (e[h - 1] + e[h]);
+    });
+    if (keys.length === 1) return { mag: Float64Array.of(mag[0] - 1, mag[0] + 1), sigma: Float64Array.of(sigma[0], sigma[0]) };
     return { mag, sigma };
   }
 
@@ -419,14 +446,14 @@ export class CmdLikelihood {
           const e = this.data.err[b][i];
           s += 1 / (e * e + sx2);
         }
-        const need = (this.qGrid.spanMag * Math.sqrt(s)) / this.options.qStepSigma;
+        const sq = Math.sqrt(s);
         let l = this.qGrid.nLevels - 1;
-        while (l > 0 && this.qGrid.n0 / (1 << l) < need) l--;
+        while (l > 0 && this.qGrid.maxStepMag[l] * sq > this.options.qStepSigma) l--;
         this.level[i] = l;
         if (l < minLevel) minLevel = l;
       }
       this.builtStep = 1 << minLevel;
-      this.binaryBuilder.build(this.poly, this.qGrid, this.builtStep, this.binarySet);
+      this.binaryBuilder.build(this.poly, this.qGrid, this.builtStep, this.binarySet, this.firstVisiblePrimary(sx2));
     }
     segmentBounds(this.poly.segments, undefined, 1, this.singleBound);
     if (needBinaries) for (let l = minLevel; l < this.qGrid.nLevels; l++) segmentBounds(this.binarySet, this.qGrid.lnWeight[l], 1 << l, this.binaryBound[l]);
@@ -440,6 +467,23 @@ export class CmdLikelihood {
     }
     this.status = 'ok';
     return true;
+  }
+
+  /**
+   * The first polyline node whose binaries could be seen: a binary is at most 0.753 mag brighter than its
+   * primary, so primaries fainter than a band's faint limit + 0.76 mag + 12 times the largest error are
+   * invisible to every star that has that band (their Gaussian factor is below e^-72).
+   */
+  private firstVisiblePrimary(sx2: number): number {
+    let k = 0;
+    for (let b = 0; b < this.nBands; b++) {
+      if (!Number.isFinite(this.selection.faint[b]) || !this.bandInAll[b]) continue;
+      const cut = this.selection.faint[b] + 0.76 + 12 * Math.sqrt(this.maxErr2[b] + sx2);
+      let kb = 0;
+      while (kb < this.poly.n - 2 && this.poly.mag[b][kb] > cut) kb++;
+      k = Math.max(k, kb > 0 ? kb - 1 : 0);
+    }
+    return k;
   }
 
   private indexFor(level: number, band: number, binary: boolean): SegmentIndex {

@@ -130,14 +130,21 @@ export function segmentLogWeight(imf: Imf, lnMa: number, lnMb: number, out0: Flo
   out2[k] = (-v * v) / s2;
 }
 
-/** Cumulative number N(M) = int_0^M dN/dM' dM' (in the IMF's own normalisation), exact for each piece. */
+/** Masses below this are never counted (only differences of cumulative numbers are used). */
+const MASS_FLOOR = 0.01;
+
+/**
+ * Cumulative number N(M) = int_floor^M dN/dM' dM' from 0.01 Msun (in the IMF's own normalisation), exact
+ * for each piece. Differences of it count the stars between two masses.
+ */
 export function imfCumulative(imf: Imf, mass: number): number {
   let total = 0;
   const p = imf.pieces;
   for (let i = 0; i < p.length; i++) {
-    const lo = p[i].lo;
+    const lo = Math.max(p[i].lo, MASS_FLOOR);
     const hi = i + 1 < p.length ? p[i + 1].lo : Infinity;
     if (mass <= lo) break;
+    if (hi <= lo) continue;
     total += pieceIntegral(p[i], lo, Math.min(mass, hi));
   }
   return total;

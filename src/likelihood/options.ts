@@ -72,9 +72,9 @@ export const DEFAULT_LIKELIHOOD_OPTIONS: LikelihoodOptions = {
   field: { kind: 'uniform' },
   limits: {},
   parallax: { use: true, zeroPointMas: -0.017 },
-  polylineToleranceMag: 5e-4,
+  polylineToleranceMag: 1e-4,
   pruneLogRatio: 14,
-  qStepSigma: 0.5,
+  qStepSigma: 1.0,
   prune: true,
 };
 

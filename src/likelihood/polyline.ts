@@ -8,7 +8,9 @@
  * a node at each IMF break (interpolated in log mass). Along each kept segment log(mass) is linear in the
  * segment coordinate t, so the IMF weight is exactly log-linear (power law) or log-quadratic (log-normal) in
  * t (imf.ts), and the Gaussian integral over each segment is exact (segmentIntegral.ts). The tolerance is a
- * stated model approximation (default 5e-4 mag, far below photometric errors and stellar-model systematics);
+ * stated model approximation (default 1e-4 mag, far below photometric errors and stellar-model systematics;
+ * a star with errors sigma at distance d from the sequence sees its log-likelihood change by at most about
+ * (2/3) d tolerance / sigma^2, i.e. below 1% for sigma = 0.01 mag);
  * the brute-force reference integrator integrates the same polyline.
  *
  * Extinction: A_b = R_b E(B-V) with R_b evaluated per isochrone node from the star's intrinsic log Teff and

@@ -10,7 +10,8 @@
  *   (a change of variables with its Jacobian), evaluating the flux sum of primary and secondary at every
  *   node, the secondary's magnitude interpolated on the polyline (or its faint continuation);
  * - Z by the same grids, with the per-band selection probabilities of selection.ts.
- * The only shortcut: for one star, a primary segment's binaries are skipped when the bounding box of all
+ * Far from the sequence (more than 4 sigma from every node) the sub-intervals shrink in proportion to the
+ * distance, since the integrand then falls off on a scale sigma^2 / distance. The only shortcut: for one star, a primary segment's binaries are skipped when the bounding box of all
  * binaries it can make lies more than 12 sigma (Mahalanobis, squared distance 150) further than the nearest
  * such box; their contribution is below e^-75 of the nearest ones for any IMF weight ratio below e^35.
  */
@@ -220,7 +221,15 @@ export function referenceLogLikelihoods(lik: CmdLikelihood, theta: ArrayLike<num
         m[b] = 0;
       }
     }
-    const pts = buildPoints(sMin);
+    // Far from the sequence the integrand falls off from its nearest point on a scale sigma^2 / distance,
+    // not sigma: refine by the distance (in sigma) to the nearest polyline node.
+    let dMin = Infinity;
+    for (let k = 0; k < K; k++) {
+      let q = 0;
+      for (let b = 0; b < nb; b++) if (iv[b] > 0) q += iv[b] * (m[b] - poly.mag[b][k]) ** 2;
+      dMin = Math.min(dMin, Math.sqrt(q));
+    }
+    const pts = buildPoints(sMin / Math.max(1, dMin / 4));
     const chi2 = (mu: (b: number) => number) => {
       let q = 0;
       for (let b = 0; b < nb; b++) if (iv[b] > 0) q += iv[b] * (m[b] - mu(b)) ** 2;

@@ -129,3 +129,11 @@ export class TestExtinction implements ExtinctionModel {
     });
   }
 }
+
+/** Factories, for building the likelihood from a spec in another thread (spec.ts resolves these by name). */
+export function syntheticIsochrones(o: SyntheticOptions = {}): SyntheticIsochrones {
+  return new SyntheticIsochrones(o);
+}
+export function testExtinction(colourSlope = 0): TestExtinction {
+  return new TestExtinction(colourSlope);
+}

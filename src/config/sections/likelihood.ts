@@ -79,12 +79,12 @@ export const likelihoodSection = z.strictObject({
   numerics: z
     .strictObject({
       /** Largest deviation of the model polyline from the isochrone, mag. */
-      polyline_tolerance_mag: z.number().gt(0).max(0.01).default(5e-4),
+      polyline_tolerance_mag: z.number().gt(0).max(0.01).default(1e-4),
       /** Skip segments whose contribution bound is below e^-prune_log_ratio of the largest. */
       prune_log_ratio: z.number().min(8).max(50).default(14),
       /** Largest step of the mass-ratio quadrature, in units of each star's error. */
-      q_step_sigma: z.number().gt(0).max(2).default(0.5),
+      q_step_sigma: z.number().gt(0).max(2).default(1),
     })
-    .default({ polyline_tolerance_mag: 5e-4, prune_log_ratio: 14, q_step_sigma: 0.5 }),
+    .default({ polyline_tolerance_mag: 1e-4, prune_log_ratio: 14, q_step_sigma: 1 }),
 });
 export type LikelihoodConfig = z.infer<typeof likelihoodSection>;
