@@ -28,7 +28,10 @@ export const startupBench: BenchGroup = {
   async run(ctx) {
     const bare = timeCommand(['-e', ''], 15);
     const help = timeCommand(['bin/coeval.js', '--help'], 15);
+    // The same CLI without the yargs bundle (scripts/bundle-cli.mjs), to show what bundling buys.
+    const unbundled = timeCommand(['--input-type=module', '-e', "const m = await import('./dist/src/cli/main.js'); await m.main(['--help']);"], 15);
     ctx.record({ name: 'coeval --help, median of 15', value: help, unit: 'ms', target: { op: '<=', value: 300 }, reference: { name: 'bare `node -e ""`', value: bare } });
+    ctx.record({ name: 'coeval --help without the yargs bundle', value: unbundled, unit: 'ms', reference: { name: 'bundled', value: help } });
     ctx.record({ name: 'node_modules size (du)', value: duMegabytes(resolve(root, 'node_modules')), unit: 'MB', note: 'includes devDependencies' });
   },
 };

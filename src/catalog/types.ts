@@ -17,7 +17,14 @@ export interface FilterReport {
  */
 export interface Catalog {
   /** Where it came from, for messages and manifests. */
-  source: { path: string; format: CatalogFormat; hdu?: number; rowsRead: number };
+  source: {
+    path: string;
+    format: CatalogFormat;
+    hdu?: number;
+    rowsRead: number;
+    /** How the reader took it, in words (`comma-separated, header on line 3`, `binary table in HDU 1`). */
+    detail?: string;
+  };
   nStars: number;
   bands: BandId[];
   /** mag[b][i]: star i's magnitude in bands[b]; NaN when missing. */

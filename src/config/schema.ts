@@ -3,6 +3,8 @@ import { catalogueSection } from './sections/catalogue.js';
 import { likelihoodSection } from './sections/likelihood.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
+import { samplerSection } from './sections/sampler.js';
+import { priorsSection } from './sections/priors.js';
 
 /**
  * The whole config: one key per section. To add a section (model, priors, sampler, ...), write
@@ -14,7 +16,9 @@ export const configSchema = z.strictObject({
   catalogue: catalogueSection,
   photometry: photometrySection,
   output: outputSection.default({ overwrite: false }),
-  likelihood: likelihoodSection.default(likelihoodSection.parse({})),
+  sampler: samplerSection.prefault({}),
+  priors: priorsSection.optional(),
+  likelihood: likelihoodSection.prefault({}),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;

@@ -14,6 +14,13 @@ export interface BandInfo {
   xInvUm: number;
   /** Where the wavenumber comes from. */
   source: string;
+  /**
+   * Effective wavenumber at which an extinction law is evaluated for this band, where it differs from
+   * xInvUm because xInvUm is a conventional point rather than this band's own (see below). Absent: use xInvUm.
+   */
+  xExtinctionInvUm?: number;
+  /** Where xExtinctionInvUm comes from. */
+  extinctionSource?: string;
 }
 
 /*
@@ -24,13 +31,22 @@ export interface BandInfo {
  * (from memory); they are used for labels only, since Gaia extinction is colour-dependent (stellar/extinction).
  */
 const CCM = 'Cardelli, Clayton & Mathis 1989, Table 3';
+/*
+ * CCM89's R and I wavenumbers (1.43, 1.11 per micron: 0.70 and 0.90 micron) are those of Johnson's R and I.
+ * Cousins Rc and Ic are bluer; evaluating a law at 1.11 instead of Ic's wavenumber would give
+ * E(V-Ic)/E(B-V) = 1.62 instead of about 1.25. Extinction therefore uses the mean wavenumbers of the
+ * Bessell 1990 (PASP 102, 1181) Rc and Ic passbands, as tabulated in repo desihub/speclite
+ * (speclite/data/filters/bessell-R.ecsv, bessell-I.ecsv), weighted by a 5772 K black body: 0.6522 and
+ * 0.8013 micron. (For 4000 K and 9700 K the same weighting gives 1.511-1.551 and 1.243-1.252 per micron.)
+ */
+const COUSINS = 'Bessell 1990 passband, mean wavelength for a 5772 K black body';
 const GAIA = 'Gaia DR3 passband pivot wavelength (from memory)';
 export const BANDS: Readonly<Record<BandId, BandInfo>> = {
   U: { id: 'U', system: 'Johnson-Cousins', xInvUm: 2.78, source: CCM },
   B: { id: 'B', system: 'Johnson-Cousins', xInvUm: 2.27, source: CCM },
   V: { id: 'V', system: 'Johnson-Cousins', xInvUm: 1.82, source: CCM },
-  R: { id: 'R', system: 'Johnson-Cousins', xInvUm: 1.43, source: CCM },
-  I: { id: 'I', system: 'Johnson-Cousins', xInvUm: 1.11, source: CCM },
+  R: { id: 'R', system: 'Johnson-Cousins', xInvUm: 1.43, source: CCM, xExtinctionInvUm: 1 / 0.6522, extinctionSource: COUSINS },
+  I: { id: 'I', system: 'Johnson-Cousins', xInvUm: 1.11, source: CCM, xExtinctionInvUm: 1 / 0.8013, extinctionSource: COUSINS },
   G: { id: 'G', system: 'Gaia DR3', xInvUm: 1 / 0.622, source: GAIA },
   BP: { id: 'BP', system: 'Gaia DR3', xInvUm: 1 / 0.511, source: GAIA },
   RP: { id: 'RP', system: 'Gaia DR3', xInvUm: 1 / 0.777, source: GAIA },

@@ -11,6 +11,8 @@ export function nearestNames(wanted: string, candidates: readonly string[], max 
     const lc = c.toLowerCase();
     let d = distance(w, lc);
     if (lc.includes(w) || w.includes(lc)) d = Math.min(d, Math.abs(lc.length - w.length) / 2);
+    // Names that differ only in separators (`e_Imag` and `eImag`) rank above other one-letter differences.
+    d = Math.min(d, distance(strip(w), strip(lc)) + 0.5);
     return { c, d };
   });
   const limit = Math.max(2, Math.ceil(w.length / 2));
@@ -19,6 +21,10 @@ export function nearestNames(wanted: string, candidates: readonly string[], max 
     .sort((a, b) => a.d - b.d || a.c.localeCompare(b.c))
     .slice(0, max)
     .map((s) => s.c);
+}
+
+function strip(s: string): string {
+  return s.replace(/[^a-z0-9]/g, '');
 }
 
 /** A hint sentence, or undefined when nothing is close. */

@@ -20,7 +20,7 @@
  * (cluster: 1000/d + zero point, field: normal), each with a Gaussian error; missing bands at random.
  */
 import mt19937 from '@stdlib/random-base-mt19937';
-import boxMuller from '@stdlib/random-base-box-muller';
+import ziggurat from '@stdlib/random-base-improved-ziggurat';
 import type { BandId } from '../core/bands.js';
 import { InputError, ModelError } from '../core/errors.js';
 import type { Catalog } from '../catalog/types.js';
@@ -74,7 +74,7 @@ export function simulateCatalog(spec: SimulationSpec, source: IsochroneSource, e
   const th = spec.theta;
   // The factory's result has `normalized` (uniform on [0, 1)) at run time; its type declaration omits it.
   const uniform = (mt19937.factory({ seed: spec.seed >>> 0 }) as unknown as { normalized: () => number }).normalized;
-  const normal = boxMuller.factory({ prng: uniform });
+  const normal = ziggurat.factory({ prng: uniform });
   const imf = makeImf(o.imf);
 
   const bright = new Float64Array(nb);

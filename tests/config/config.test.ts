@@ -37,6 +37,11 @@ describe('config loading', () => {
     expect(config.output.overwrite).toBe(false);
   });
 
+  it('keeps the bands in the order the file lists them, not the built-in band order', () => {
+    const { config } = parseConfigText(`${BASE}\n[photometry.B]\nmag = "Bmag"\nerr = "e_Bmag"\n`);
+    expect(Object.keys(config.photometry)).toEqual(['V', 'I', 'B']);
+  });
+
   it('suggests the nearest key for an unknown key, with its line', () => {
     const e = configError(BASE.replace('path = "stars.csv"', 'path = "stars.csv"\nmembersip = "pmem"'));
     expect(e.where?.key).toBe('catalogue.membersip');

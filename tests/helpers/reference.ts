@@ -20,6 +20,7 @@ export const REFERENCES = {
   astropy: { debianPackage: 'python3-astropy', probe: [SYSTEM_PYTHON, '-c', 'import astropy'] },
   emcee: { debianPackage: 'python3-emcee', probe: [SYSTEM_PYTHON, '-c', 'import emcee'] },
   extinction: { debianPackage: 'python3-extinction', probe: [SYSTEM_PYTHON, '-c', 'import extinction'] },
+  scipy: { debianPackage: 'python3-scipy', probe: [SYSTEM_PYTHON, '-c', 'import scipy.stats'] },
   posterior: { debianPackage: 'r-cran-posterior', probe: ['Rscript', '-e', 'library(posterior)'] },
 } satisfies Record<string, Reference>;
 

@@ -72,7 +72,6 @@ describe('fast path against the brute-force reference', () => {
   for (const [name, theta, opts] of cases) {
     it(name, () => {
       const r = compare(theta, opts);
-      // eslint-disable-next-line no-console
       console.log(`${name}: largest |fast - reference| = ${r.worst.toExponential(2)} at star ${r.worstAt}`);
       expect(r.worst).toBeLessThan(1e-3);
     }, 300_000);
@@ -87,7 +86,6 @@ describe('total over 10^4 stars', () => {
     const lik = new CmdLikelihood(sim.catalog, src, ext, { limits });
     const fast = lik.evaluate(theta);
     const ref = referenceLogLikelihoods(lik, theta).logL.reduce((a, b) => a + b, 0);
-    // eslint-disable-next-line no-console
     console.log(`10^4 stars: fast ${fast.toFixed(4)}, reference ${ref.toFixed(4)}, difference ${(fast - ref).toExponential(2)}`);
     expect(Math.abs(fast - ref)).toBeLessThan(0.05);
   }, 600_000);

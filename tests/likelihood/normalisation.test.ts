@@ -42,7 +42,6 @@ function integral(options: Partial<LikelihoodOptions>, fBinary: number, fField =
   const logL = lik.responsibilities({ logAgeYr: 9.9, feh: -1, dm: 12, ebv: 0.05, fBinary, fField, sigmaExtra: 0 }).logL;
   let s = 0;
   for (let i = 0; i < n; i++) s += Math.exp(logL[i]);
-  // eslint-disable-next-line no-console
   console.log(`integral over the window (${JSON.stringify(options).slice(0, 60)}, f_binary ${fBinary}, f_field ${fField}): ${(s * hB * hV).toFixed(5)}`);
   return s * hB * hV;
 }

@@ -78,7 +78,6 @@ describe('1-D slices through the truth', () => {
   for (const [key, step] of steps) {
     it(`${key} peaks within 2 sigma of the truth`, () => {
       const { peak, sigma } = slice(key, step);
-      // eslint-disable-next-line no-console
       console.log(`${key}: truth ${truth[key]}, peak ${peak.toFixed(5)}, sigma ${sigma.toExponential(2)}, offset ${((peak - truth[key]) / sigma).toFixed(2)} sigma`);
       expect(Math.abs(peak - truth[key])).toBeLessThan(2 * sigma);
     }, 600_000);

@@ -6,15 +6,20 @@ const repoRoot = resolve(fileURLToPath(import.meta.url), '../../../../..');
 
 export const demoCommand: CommandSpec = {
   command: 'demo',
-  describe: 'run coeval on the embedded demo cluster (what exists of the pipeline so far)',
+  describe: 'run coeval on the invented demo cluster (what exists of the pipeline so far: the catalogue check)',
   builder: (y) => y,
   async run(_args, ctx) {
     const { loadConfig } = await import('../../config/index.js');
+    const { checkConfig, formatCheckReport } = await import('../../pipeline/index.js');
     const file = resolve(repoRoot, 'configs/demo.toml');
-    ctx.out.info(`coeval demo: validating ${file}.`);
-    ctx.out.info('Only the config layer exists so far: the catalogue readers and the fit are not built yet, so this demo checks the config and stops.');
+    ctx.out.info(`coeval demo: the invented globular cluster "Tessaly 7" (config ${file}).`);
+    ctx.out.info(
+      'The fit is not built yet. What this demo does today: read the config and the demo catalogue, and print the\n' +
+        'summary of `coeval check`. The catalogue is a synthetic, non-physical stand-in (see demo-data/README.md).\n',
+    );
     const loaded = loadConfig(file, { sets: ctx.args.set });
-    ctx.out.result(`config OK: catalogue ${loaded.config.catalogue.path}, bands ${Object.keys(loaded.config.photometry).join(', ')}`);
+    const report = await checkConfig(loaded);
+    ctx.out.result(ctx.args.json ? JSON.stringify(report, null, 2) : formatCheckReport(report, repoRoot));
     return 0;
   },
 };

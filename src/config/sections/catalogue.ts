@@ -24,12 +24,16 @@ export const catalogueSection = z.strictObject({
   /** Path to the catalogue, relative to the config file. */
   path: z.string().min(1),
   format: z.enum(CATALOGUE_FORMATS).default('auto'),
-  /** FITS: the HDU holding the BINTABLE (0 = primary). VOTable: the 0-based TABLE index. Default: the first table. */
+  /** FITS: the HDU holding the BINTABLE (0 = primary). Default: the first BINTABLE. */
   hdu: z.number().int().min(0).optional(),
-  /** Text tables: the field delimiter. Default: detected from the header line. */
+  /** VOTable: the 0-based index of the TABLE element, in document order. Default: the first. */
+  table: z.number().int().min(0).optional(),
+  /** Text tables: the field delimiter (" " for runs of blanks). Default: detected from the first lines. */
   delimiter: z.string().min(1).max(2).optional(),
   /** Text tables: lines starting with this are comments. */
   comment: z.string().min(1).default('#'),
+  /** Text tables: whether the first non-comment line names the columns. Default: detected. */
+  header: z.boolean().optional(),
   /** Optional columns. */
   id: z.string().min(1).optional(),
   membership: z.string().min(1).optional(),

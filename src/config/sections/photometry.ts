@@ -23,14 +23,12 @@ const fluxColumns = z.strictObject({
 export const bandColumnsSchema = z.union([magnitudeColumns, fluxColumns]);
 export type BandColumns = z.infer<typeof bandColumnsSchema>;
 
-/** `[photometry.<band>]`: one table per band used in the fit; at least two bands. */
+/**
+ * `[photometry.<band>]`: one table per band used in the fit; at least two bands. A partial record (not an
+ * object with a key per band) so that the parsed value keeps the bands in the order the file lists them.
+ */
 export const photometrySection = z
-  .strictObject(
-    Object.fromEntries(BAND_IDS.map((b) => [b, bandColumnsSchema.optional()])) as Record<
-      BandId,
-      z.ZodOptional<typeof bandColumnsSchema>
-    >,
-  )
+  .partialRecord(z.enum(BAND_IDS), bandColumnsSchema)
   .refine((p) => Object.values(p).filter((v) => v !== undefined).length >= 2, {
     message: 'at least two bands are needed to form a colour-magnitude diagram',
   });

@@ -1,0 +1,101 @@
+import type { TopLevelSpec } from 'vega-lite';
+import { LINE_COLOURS, PLOT_CONFIG } from './theme.js';
+
+/** A sequence to draw as a line in the CMD (an isochrone, or a band of them). */
+export interface CmdCurve {
+  label: string;
+  colour: ArrayLike<number>;
+  mag: ArrayLike<number>;
+  /** Break the line where this changes (e.g. between the giant branch and the horizontal branch). */
+  segment?: ArrayLike<number>;
+  /** Line opacity, for posterior bands drawn as many faint lines. */
+  opacity?: number;
+}
+
+/** Stars to draw as points, optionally shaded by a value in [0, 1] such as cluster membership. */
+export interface CmdStars {
+  colour: ArrayLike<number>;
+  mag: ArrayLike<number>;
+  shade?: ArrayLike<number>;
+  shadeTitle?: string;
+}
+
+export interface CmdPlotOptions {
+  title?: string;
+  xTitle: string;
+  yTitle: string;
+  curves?: CmdCurve[];
+  stars?: CmdStars;
+  width?: number;
+  height?: number;
+  /** Axis ranges; by default they fit the data. */
+  xDomain?: [number, number];
+  yDomain?: [number, number];
+}
+
+/**
+ * A colour-magnitude diagram: colour on x, magnitude on y with bright stars at the top.
+ * Returns a vega-lite spec; render it with report/render.ts.
+ */
+export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
+  const layers: NonNullable<Extract<TopLevelSpec, { layer: unknown }>['layer']> = [];
+  const x = { field: 'x', type: 'quantitative' as const, title: o.xTitle, scale: { zero: false, nice: false, ...(o.xDomain ? { domain: o.xDomain } : {}) } };
+  const y = { field: 'y', type: 'quantitative' as const, title: o.yTitle, scale: { zero: false, nice: false, reverse: true, ...(o.yDomain ? { domain: o.yDomain } : {}) } };
+
+  if (o.stars) {
+    const s = o.stars;
+    const values = [];
+    for (let i = 0; i < s.mag.length; i++) {
+      if (Number.isFinite(s.mag[i]) && Number.isFinite(s.colour[i])) values.push({ x: s.colour[i], y: s.mag[i], s: s.shade ? s.shade[i] : 1 });
+    }
+    layers.push({
+      data: { values },
+      mark: { type: 'circle', size: values.length > 5000 ? 3 : 8, opacity: 0.6 },
+      encoding: {
+        x,
+        y,
+        ...(s.shade
+          ? { color: { field: 's', type: 'quantitative', title: s.shadeTitle ?? 'membership', scale: { domain: [0, 1], range: ['#d9d9d9', '#1b1b1b'] } } }
+          : { color: { value: '#333333' } }),
+      },
+    });
+  }
+
+  const curves = o.curves ?? [];
+  if (curves.length > 0) {
+    // One layer for all curves: curves sharing a label share a colour and a legend entry, and each
+    // curve (and each segment of it) is drawn as its own polyline.
+    const values = [];
+    const labels: string[] = [];
+    for (let k = 0; k < curves.length; k++) {
+      const c = curves[k];
+      if (!labels.includes(c.label)) labels.push(c.label);
+      for (let i = 0; i < c.mag.length; i++) {
+        if (Number.isFinite(c.mag[i]) && Number.isFinite(c.colour[i])) {
+          values.push({ x: c.colour[i], y: c.mag[i], i, line: `${k}:${c.segment ? c.segment[i] : 0}`, label: c.label, a: c.opacity ?? 1 });
+        }
+      }
+    }
+    layers.push({
+      data: { values },
+      mark: { type: 'line', strokeWidth: 1.4, clip: true },
+      encoding: {
+        x,
+        y,
+        order: { field: 'i', type: 'quantitative' },
+        detail: { field: 'line', type: 'nominal' },
+        opacity: { field: 'a', type: 'quantitative', scale: null, legend: null },
+        color: { field: 'label', type: 'nominal', title: null, scale: { domain: labels, range: LINE_COLOURS.slice(0, Math.max(1, labels.length)) } },
+      },
+    });
+  }
+
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    config: PLOT_CONFIG,
+    ...(o.title ? { title: o.title } : {}),
+    width: o.width ?? 420,
+    height: o.height ?? 520,
+    layer: layers,
+  };
+}

@@ -1,0 +1,22 @@
+/** The ensemble sampler's public names. */
+export type { EnsembleState, LogDensity } from './types.js';
+export { SamplerRng } from './rng.js';
+export type { Move, ProposalInput, WeightedMove } from './moves/move.js';
+export { stretchMove, type StretchOptions } from './moves/stretchMove.js';
+export { deMove, type DEOptions } from './moves/deMove.js';
+export { walkMove, type WalkOptions } from './moves/walkMove.js';
+export { MoveMixture, type MoveMixtureState } from './moves/moveMixture.js';
+export { EnsembleSampler, type EnsembleSamplerOptions, type EnsembleSnapshot, type EnsembleStart, type SampleOptions } from './ensembleSampler.js';
+export { inThreadEvaluator, type Evaluator } from './evaluator.js';
+export { workerEvaluator, type WorkerEvaluatorOptions } from './workerEvaluator.js';
+export { createEvaluator } from './createEvaluator.js';
+export { loadLogDensity, type LogDensityFactory, type LogDensitySpec } from './logDensitySpec.js';
+export { initializeEnsemble, type InitMethod, type InitOptions, type PriorSampler, type RandomSource, type OptimumReport } from './initialize.js';
+export { checkNotDegenerate, checkWalkerCount } from './checkEnsemble.js';
+export { nelderMead, type NelderMeadOptions, type NelderMeadResult } from './nelderMead.js';
+export { AutoStop, type StopRule, type TauEstimator, type AutoStopState } from './stopRule.js';
+export { MemorySink, type ChainSink } from './chainSink.js';
+export { readCheckpoint, writeCheckpoint, CHECKPOINT_FORMAT, CHECKPOINT_VERSION, type Checkpoint } from './checkpoint.js';
+export { runEnsembles, createEnsembles, resumeEnsembles, type RunOptions, type RunResult, type RunInfo, type RunObserver, type CheckpointOptions, type CreateEnsemblesOptions } from './runEnsembles.js';
+export { progressReporter, type ProgressOptions } from './progress.js';
+export { movesFromConfig, type MoveConfig } from './movesFromConfig.js';
