@@ -104,7 +104,6 @@ export class CmdLikelihood {
   private readonly lnMember: Float64Array;
   private readonly lnNonMember: Float64Array;
   private readonly plxOk: Uint8Array;
-  private builtStep = -1;
   /** Per band: whether every star has it, and its largest squared error. */
   private readonly bandInAll: Uint8Array;
   private readonly maxErr2: Float64Array;
@@ -452,8 +451,7 @@ export class CmdLikelihood {
         this.level[i] = l;
         if (l < minLevel) minLevel = l;
       }
-      this.builtStep = 1 << minLevel;
-      this.binaryBuilder.build(this.poly, this.qGrid, this.builtStep, this.binarySet, this.firstVisiblePrimary(sx2));
+      this.binaryBuilder.build(this.poly, this.qGrid, 1 << minLevel, this.binarySet, this.firstVisiblePrimary(sx2));
     }
     segmentBounds(this.poly.segments, undefined, 1, this.singleBound);
     if (needBinaries) for (let l = minLevel; l < this.qGrid.nLevels; l++) segmentBounds(this.binarySet, this.qGrid.lnWeight[l], 1 << l, this.binaryBound[l]);

@@ -37,8 +37,6 @@ export class ModelPolyline {
   faintSlope: Float64Array;
   /** Segment k joins node k to node k + 1. */
   readonly segments: SegmentSet;
-  /** Total IMF weight of the polyline, for pruning bounds. */
-  lnWmaxGlobal = -Infinity;
 
   // scratch over the isochrone's own nodes
   private ratio: Float64Array[] = [];
@@ -152,14 +150,11 @@ export class ModelPolyline {
     // 3. Segments with exact IMF weights.
     const seg = this.segments;
     seg.reset();
-    let wMax = -Infinity;
     const w = SCRATCH3;
     for (let k = 0; k + 1 < nk; k++) {
       segmentLogWeight(imf, this.lnMass[k], this.lnMass[k + 1], w[0], w[1], w[2], 0);
       seg.add(this.mag, k, this.mag, k + 1, w[0][0], w[1][0], w[2][0], -1);
-      if (seg.lnWmax[k] > wMax) wMax = seg.lnWmax[k];
     }
-    this.lnWmaxGlobal = wMax;
 
     for (let b = 0; b < this.nBands; b++) {
       const fl = this.flux[b];

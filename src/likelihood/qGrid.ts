@@ -45,8 +45,6 @@ export class QGrid {
   readonly q: Float64Array;
   /** ln q. */
   readonly lnQ: Float64Array;
-  /** Total span of the magnitude-like variable, in mag; the offset step at level l is at most about span / n_l. */
-  readonly spanMag: number;
   /** Largest step in the offset o(q) between neighbouring nodes at each level, mag. */
   readonly maxStepMag: Float64Array;
   /** lnWeight[l][j]: log quadrature weight of node j at level l (-Infinity where j is not a level-l node). */
@@ -58,7 +56,6 @@ export class QGrid {
     const qMin = dist.qMin;
     const s0 = offset(qMin);
     const span = offset(1) - s0 + C_LIN * (1 - qMin);
-    this.spanMag = span;
     const n0 = this.n0;
     this.q = new Float64Array(n0 + 1);
     this.lnQ = new Float64Array(n0 + 1);

@@ -88,7 +88,6 @@ export class Selection {
   readonly completeness?: CompletenessTable;
   /** Magnitude below which the completeness is 1 everywhere (used to skip exact integration). */
   private readonly fullUntil: number;
-  /** Largest typical error at each band's faint limit, for the 8-sigma classification. */
 
   constructor(bright: Float64Array, faint: Float64Array, errors: ErrorLaw[], completeness?: CompletenessTable) {
     this.nBands = bright.length;

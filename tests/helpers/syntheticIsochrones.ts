@@ -8,14 +8,14 @@
 import type { BandId } from '../../src/core/bands.js';
 import { Phase, type ExtinctionModel, type Isochrone, type IsochroneRequest, type IsochroneSource, type ModelProvenance } from '../../src/stellar/types.js';
 
-const BANDS: BandId[] = ['B', 'V', 'I', 'J'];
+const BANDS: BandId[] = ['B', 'V', 'I', 'J', 'G', 'BP', 'RP'];
 
 const PROVENANCE: ModelProvenance = {
   model: 'synthetic test isochrones (toy)',
   evolution: 'none: invented smooth relations for tests',
   solarZ: 0.02,
   alphaFe: 0,
-  bands: { B: 'toy', V: 'toy', I: 'toy', J: 'toy' },
+  bands: { B: 'toy', V: 'toy', I: 'toy', J: 'toy', G: 'toy', BP: 'toy', RP: 'toy' },
   caveats: ['a toy for tests only'],
 };
 
@@ -95,7 +95,19 @@ export class SyntheticIsochrones implements IsochroneSource {
         const c = BV[k];
         const vi = 0.85 * c + 0.05 * c * c;
         const vj = 1.6 * c + 0.1;
-        out[k] = b === 'B' ? V[k] + c : b === 'V' ? V[k] : b === 'I' ? V[k] - vi : b === 'J' ? V[k] - vj : Number.NaN;
+        // Toy Gaia magnitudes: G a little brighter than V for red stars, BP - RP about 1.25 (V - I).
+        const g = V[k] - 0.02 - 0.25 * vi;
+        const bprp = 1.25 * vi;
+        switch (b) {
+          case 'B': out[k] = V[k] + c; break;
+          case 'V': out[k] = V[k]; break;
+          case 'I': out[k] = V[k] - vi; break;
+          case 'J': out[k] = V[k] - vj; break;
+          case 'G': out[k] = g; break;
+          case 'BP': out[k] = g + 0.35 * bprp; break;
+          case 'RP': out[k] = g - 0.65 * bprp; break;
+          default: out[k] = Number.NaN;
+        }
       }
       absMag.push(out);
     }

@@ -11,20 +11,26 @@ import { CmdLikelihood } from '../../src/likelihood/cmdLikelihood.js';
 import { referenceLogLikelihoods } from '../../src/likelihood/referenceIntegrator.js';
 import { simulateCatalog } from '../../src/likelihood/simulate.js';
 import type { ClusterParameters } from '../../src/likelihood/theta.js';
+import { extinctionModel } from '../../src/stellar/extinction/index.js';
+import type { ExtinctionModel } from '../../src/stellar/types.js';
+import type { BandId } from '../../src/core/bands.js';
 import { SyntheticIsochrones, TestExtinction } from '../helpers/syntheticIsochrones.js';
 
 const src = new SyntheticIsochrones();
 const limits = { B: { bright: 8, faint: 22 }, V: { bright: 8, faint: 21 }, I: { bright: 7, faint: 20.5 } };
 const errorLaw = { B: { a: 0.006, b: 0.05, mRef: 22 }, V: { a: 0.006, b: 0.05, mRef: 21 }, I: { a: 0.006, b: 0.05, mRef: 20.5 } };
+const gaiaLimits = { G: { bright: 8, faint: 20.5 }, BP: { bright: 8, faint: 21.2 }, RP: { bright: 7, faint: 19.8 } };
+const gaiaErrors = { G: { a: 0.003, b: 0.03, mRef: 20.5 }, BP: { a: 0.006, b: 0.06, mRef: 21.2 }, RP: { a: 0.006, b: 0.06, mRef: 19.8 } };
 
-function compare(theta: ClusterParameters, opts: { n: number; seed: number; missing?: boolean; far?: boolean; colour?: number; completeness?: boolean }) {
-  const ext = new TestExtinction(opts.colour ?? 0);
+function compare(theta: ClusterParameters, opts: { n: number; seed: number; missing?: boolean; far?: boolean; colour?: number; completeness?: boolean; gaia?: boolean }) {
+  const ext: ExtinctionModel = opts.gaia ? extinctionModel() : new TestExtinction(opts.colour ?? 0);
+  const bands: BandId[] = opts.gaia ? ['G', 'BP', 'RP'] : ['B', 'V', 'I'];
   const likelihood = {
-    limits,
+    limits: opts.gaia ? gaiaLimits : limits,
     completeness: opts.completeness ? { band: 'V' as const, mag: [18, 20, 21], fraction: [1, 0.8, 0.3] } : undefined,
   };
   const sim = simulateCatalog(
-    { seed: opts.seed, nStars: opts.n, bands: ['B', 'V', 'I'], theta, errorLaw, likelihood, missingFraction: opts.missing ? { B: 0.2, I: 0.1 } : undefined },
+    { seed: opts.seed, nStars: opts.n, bands, theta, errorLaw: opts.gaia ? gaiaErrors : errorLaw, likelihood, missingFraction: opts.missing ? { B: 0.2, I: 0.1 } : undefined },
     src,
     ext,
   );
@@ -67,6 +73,7 @@ describe('fast path against the brute-force reference', () => {
     // Far stars with binaries are left out: the reference's fixed q panels cannot resolve the extremely
     // narrow q integrand of a star hundreds of sigma away (its error, not the fast path's, would dominate).
     ['stars far from any sequence, no field term, singles', { ...base, fField: 0, fBinary: 0 }, { n: 40, seed: 15, far: true }],
+    ['Gaia bands, colour-dependent extinction of the built-in model (Casagrande et al. 2021 coefficients)', { ...base, ebv: 0.4 }, { n: 40, seed: 17, gaia: true }],
     ['completeness table, only binaries', { ...base, fBinary: 1 }, { n: 40, seed: 16, completeness: true }],
   ];
   for (const [name, theta, opts] of cases) {
