@@ -139,3 +139,24 @@ describe('outliers', () => {
     expect(members / memberCount).toBeLessThan(0.05);
   }, 120_000);
 });
+
+describe('membership priors and parallaxes', () => {
+  const t = { ...theta, fField: 0.3 };
+  const s = simulateCatalog(
+    { seed: 35, nStars: 300, bands: ['B', 'V', 'I'], theta: t, errorLaw, likelihood: { limits }, membership: true, parallax: { errorMas: 0.05, fieldMeanMas: 0.8, fieldSdMas: 0.6 } },
+    src,
+    ext,
+  );
+  const lik = new CmdLikelihood(s.catalog, src, ext, { limits });
+  it("each star's membership prior replaces 1 - f_field, which then has no effect", () => {
+    expect(lik.evaluate(t)).toBe(lik.evaluate({ ...t, fField: 0.9 }));
+    expect(lik.notes.join('\n')).toMatch(/membership/);
+  });
+  it('the parallax term pulls towards the distance that matches the parallaxes', () => {
+    // Parallaxes alone (photometry held fixed by comparing with and without them) prefer the true dm.
+    const noPlx = new CmdLikelihood({ ...s.catalog, parallaxMas: undefined, parallaxErrorMas: undefined }, src, ext, { limits });
+    const gain = (dm: number) => lik.evaluate({ ...t, dm }) - noPlx.evaluate({ ...t, dm });
+    expect(gain(t.dm)).toBeGreaterThan(gain(t.dm + 0.3));
+    expect(gain(t.dm)).toBeGreaterThan(gain(t.dm - 0.3));
+  });
+});
