@@ -667,7 +667,7 @@ export class CmdLikelihood {
         const s = this.cand[k];
         if (useIndex) {
           let d2 = 0;
-          for (let b = 0; b < nb; b++) {
+          for (let b = 0; b < nb && d2 <= R2; b++) {
             const x = m[b];
             const lo = set.lo[b][s];
             const hi = set.hi[b][s];
