@@ -75,7 +75,7 @@ describe('bad input and parameters outside the model', () => {
     expect(() => new CmdLikelihood(cat, src, ext, { limits: { ...limits, V: { bright: 21, faint: 8 } } })).toThrow(/limits are inverted/);
   });
   it('a band the model lacks is a model error', () => {
-    const c: CatalogArrays = { ...cat, bands: ['B', 'V', 'G'] };
+    const c: CatalogArrays = { ...cat, bands: ['B', 'V', 'H'] };
     expect(() => new CmdLikelihood(c, src, ext, { limits })).toThrow(ModelError);
   });
   it('theta outside the model gives -Infinity with a status, never NaN', () => {
