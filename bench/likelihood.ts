@@ -55,6 +55,7 @@ export const likelihoodBench: BenchGroup = {
     const unpruned = build(200, false);
     const tpr = medianMs(timeRepeated(() => void small.evaluate(theta), 5, 1));
     const tu = medianMs(timeRepeated(() => void unpruned.evaluate(theta), 3, 1));
-    ctx.record({ name: 'pruning speed-up, 200 stars', value: tu / tpr, unit: 'x', reference: { name: 'unpruned fast path, ms/eval', value: tu } });
+    ctx.record({ name: '200 stars, pruned', value: tpr, unit: 'ms/eval', reference: { name: 'unpruned fast path (every segment for every star)', value: tu } });
+    ctx.record({ name: 'pruning speed-up, 200 stars', value: tu / tpr, unit: 'x' });
   },
 };

@@ -58,7 +58,11 @@ export interface LikelihoodOptions {
   polylineToleranceMag: number;
   /** Segments whose contribution bound is below e^-pruneLogRatio of the largest are skipped. */
   pruneLogRatio: number;
-  /** Largest step of the q quadrature, in units of the star's own error (Mahalanobis), see qGrid.ts. */
+  /**
+   * Largest step of the q quadrature between neighbouring curves, in units of the star's own error
+   * (Mahalanobis), see qGrid.ts. The trapezoid rule's error on a Gaussian bump sampled every h sigma is
+   * about 2 exp(-2 pi^2 / h^2): 3e-4 at the default 1.5.
+   */
   qStepSigma: number;
   /** false: integrate every segment for every star (for benchmarks and checks). */
   prune: boolean;
@@ -74,7 +78,7 @@ export const DEFAULT_LIKELIHOOD_OPTIONS: LikelihoodOptions = {
   parallax: { use: true, zeroPointMas: -0.017 },
   polylineToleranceMag: 1e-4,
   pruneLogRatio: 14,
-  qStepSigma: 1.0,
+  qStepSigma: 1.5,
   prune: true,
 };
 

@@ -83,8 +83,8 @@ export const likelihoodSection = z.strictObject({
       /** Skip segments whose contribution bound is below e^-prune_log_ratio of the largest. */
       prune_log_ratio: z.number().min(8).max(50).default(14),
       /** Largest step of the mass-ratio quadrature, in units of each star's error. */
-      q_step_sigma: z.number().gt(0).max(2).default(1),
+      q_step_sigma: z.number().gt(0).max(3).default(1.5),
     })
-    .default({ polyline_tolerance_mag: 1e-4, prune_log_ratio: 14, q_step_sigma: 1 }),
+    .default({ polyline_tolerance_mag: 1e-4, prune_log_ratio: 14, q_step_sigma: 1.5 }),
 });
 export type LikelihoodConfig = z.infer<typeof likelihoodSection>;
