@@ -5,3 +5,4 @@ export { quantileSorted } from './core/quantile.js';
 export * from './config/index.js';
 export * from './catalog/index.js';
 export * from './pipeline/index.js';
+export * from './stellar/grid/index.js';

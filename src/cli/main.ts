@@ -9,6 +9,11 @@ import type { CommandContext, GlobalArgs } from './context.js';
 import { createOutput } from './output.js';
 
 export async function main(argv: readonly string[]): Promise<number> {
+  // A reader that closes early (`coeval ... | head`) is not an error: stop writing quietly.
+  process.stdout.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code === 'EPIPE') process.exit(0);
+    throw err;
+  });
   const debug = argv.includes('--debug');
   const early = createOutput({ quiet: argv.includes('--quiet') || argv.includes('-q'), json: argv.includes('--json') });
   let exitCode = 0;

@@ -1,6 +1,6 @@
 import { basename, dirname, extname, resolve } from 'node:path';
 import { parse as parseToml, TomlError } from 'smol-toml';
-import type { z } from 'zod';
+import { z } from 'zod';
 import { ConfigError, showValue } from '../core/errors.js';
 import { readTextFile } from '../core/files.js';
 import { didYouMean } from '../core/suggest.js';
@@ -8,6 +8,7 @@ import { locateKey } from './locateKey.js';
 import { applyOverrides } from './overrides.js';
 import { configSchema, type CoevalConfig } from './schema.js';
 import { keysAt } from './schemaShape.js';
+import { gridSection, type GridConfig } from './sections/grid.js';
 
 /** A validated config, with where it came from, so relative paths can be resolved. */
 export interface LoadedConfig {
@@ -53,6 +54,25 @@ export function parseConfigText(text: string, opts: { file?: string; baseDir?: s
   return { config, file, baseDir, overrides: sets };
 }
 
+/**
+ * Read the `[grid]` table of a TOML file: a column-map file for `coeval grid import`, or a whole config
+ * (its other sections are ignored). Errors are located as in configs.
+ */
+export function loadGridMap(file: string): { grid: GridConfig; baseDir: string } {
+  const text = readTextFile(file, 'grid column-map file');
+  let raw: Record<string, unknown>;
+  try {
+    raw = parseToml(text.replace(/^\uFEFF/, '')) as Record<string, unknown>;
+  } catch (err) {
+    if (err instanceof TomlError) {
+      throw new ConfigError(`the column map is not valid TOML: ${err.message.split('\n')[0]}`, { where: { file, line: err.line, column: err.column } });
+    }
+    throw err;
+  }
+  const { grid } = validate(raw, text, file, z.looseObject({ grid: gridSection }));
+  return { grid, baseDir: dirname(resolve(file)) };
+}
+
 /** Resolve a path written in the config against the config file's folder. */
 export function resolveConfigPath(loaded: LoadedConfig, p: string): string {
   return resolve(loaded.baseDir, p);
@@ -66,8 +86,8 @@ export function runDirectory(loaded: LoadedConfig): string {
   return resolve(loaded.baseDir, 'runs', name);
 }
 
-function validate(raw: Record<string, unknown>, text: string, file: string | undefined): CoevalConfig {
-  const result = configSchema.safeParse(raw, { reportInput: true });
+function validate<T = CoevalConfig>(raw: Record<string, unknown>, text: string, file: string | undefined, schema: z.ZodType<T> = configSchema as unknown as z.ZodType<T>): T {
+  const result = schema.safeParse(raw, { reportInput: true });
   if (result.success) return result.data;
   const problems = result.error.issues.map((issue) => describeIssue(issue, raw));
   const first = problems[0];

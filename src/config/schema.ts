@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
 import { likelihoodSection } from './sections/likelihood.js';
+import { gridSection } from './sections/grid.js';
+import { modelSection } from './sections/model.js';
 import { outputSection } from './sections/output.js';
 import { photometrySection } from './sections/photometry.js';
 import { samplerSection } from './sections/sampler.js';
@@ -19,6 +21,8 @@ export const configSchema = z.strictObject({
   sampler: samplerSection.prefault({}),
   priors: priorsSection.optional(),
   likelihood: likelihoodSection.prefault({}),
+  grid: gridSection.optional(),
+  model: modelSection.prefault({}),
 });
 
 export type CoevalConfig = z.infer<typeof configSchema>;

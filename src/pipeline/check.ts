@@ -8,6 +8,7 @@
 import type { Catalog } from '../catalog/index.js';
 import { configuredBands, type LoadedConfig } from '../config/index.js';
 import { summarizeCatalogue, type CatalogueSummary } from './catalogueSummary.js';
+import { gridStep } from './gridCheck.js';
 
 export interface CheckSection {
   /** Stable key for JSON output, e.g. `catalogue`. */
@@ -22,11 +23,14 @@ export interface CheckSection {
 export interface CheckContext {
   loaded: LoadedConfig;
   catalog?: Catalog;
+  /** Which stellar model the check used, with its provenance, once a step has opened one. */
+  model?: string;
 }
 
 export interface CheckStep {
   id: string;
-  run(ctx: CheckContext): Promise<CheckSection>;
+  /** Returns undefined when the step has nothing to check for this config (e.g. no [grid] section). */
+  run(ctx: CheckContext): Promise<CheckSection | undefined>;
 }
 
 export interface CheckReport {
@@ -62,17 +66,20 @@ export const catalogueStep: CheckStep = {
 };
 
 /** The steps `coeval check` runs, in order. */
-export const CHECK_STEPS: CheckStep[] = [configStep, catalogueStep];
+export const CHECK_STEPS: CheckStep[] = [configStep, catalogueStep, gridStep];
 
 export async function checkConfig(loaded: LoadedConfig, steps: readonly CheckStep[] = CHECK_STEPS): Promise<CheckReport> {
   const ctx: CheckContext = { loaded };
   const sections: CheckSection[] = [];
-  for (const step of steps) sections.push(await step.run(ctx));
+  for (const step of steps) {
+    const section = await step.run(ctx);
+    if (section) sections.push(section);
+  }
   return {
     config: loaded.file,
     overrides: loaded.overrides,
     sections,
     warnings: sections.reduce((n, s) => n + s.warnings.length, 0),
-    model: 'none (this check reads only the config and the catalogue; no stellar model or photometric calibration is involved)',
+    model: ctx.model ?? 'none (this check reads only the config and the catalogue; no stellar model or photometric calibration is involved)',
   };
 }

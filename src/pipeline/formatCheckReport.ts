@@ -1,6 +1,7 @@
 import { relative } from 'node:path';
 import type { CatalogueSummary } from './catalogueSummary.js';
 import type { CheckReport, CheckSection } from './check.js';
+import type { GridCheck } from './gridCheck.js';
 
 /** The check report as text for a terminal: one block per section, then the warnings. */
 export function formatCheckReport(report: CheckReport, cwd = process.cwd()): string {
@@ -22,6 +23,7 @@ function formatSection(s: CheckSection, cwd: string): string[] {
     ];
   }
   if (s.id === 'catalogue') return formatCatalogue(s.data as CatalogueSummary, cwd);
+  if (s.id === 'grid') return formatGrid(s.data as GridCheck);
   // Sections added by later stages print their data as JSON until they bring a formatter.
   return [`${s.title.padEnd(11)} ${JSON.stringify(s.data)}`];
 }
@@ -58,6 +60,16 @@ function formatCatalogue(c: CatalogueSummary, cwd: string): string[] {
       : 'parallax    none mapped (catalogue.parallax, catalogue.parallax_error)',
   );
   lines.push(c.ids.present ? `ids         column "${c.ids.column}"` : 'ids         none mapped (catalogue.id); stars are numbered by row');
+  return lines;
+}
+
+function formatGrid(g: GridCheck): string[] {
+  const lines = [
+    `grid        ${g.name}: ${g.nIsochrones} isochrones, bands ${g.bands.join(', ')}`,
+    `            log age ${g.logAge[0].toFixed(4)} .. ${g.logAge[1].toFixed(4)}, [Fe/H] ${g.feh[0].toFixed(3)} .. ${g.feh[1].toFixed(3)}; from ${g.origin}`,
+    `            citation: ${g.citation || '(none given)'}`,
+  ];
+  for (const p of g.priors) lines.push(`            prior on ${p.parameter} ${p.support[0]} .. ${p.support[1]}: inside the grid`);
   return lines;
 }
 

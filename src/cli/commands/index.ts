@@ -1,7 +1,12 @@
 import { checkCommand } from './check.js';
 import { configCommand } from './config.js';
 import { demoCommand } from './demo.js';
+import { diagnoseCommand } from './diagnose.js';
+import { gridCommand } from './grid.js';
+import { isochroneCommand } from './isochrone.js';
+import { summaryCommand } from './summary.js';
+import { testbedCommand } from './testbed.js';
 import type { CommandSpec } from './types.js';
 
 /** Every command, in the order `coeval --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, configCommand];
+export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, isochroneCommand, configCommand, diagnoseCommand, summaryCommand, testbedCommand, gridCommand];

@@ -22,6 +22,8 @@ export interface CmdStars {
 
 export interface CmdPlotOptions {
   title?: string;
+  /** A second, smaller title line (e.g. the stellar model that made the curves). */
+  subtitle?: string;
   xTitle: string;
   yTitle: string;
   curves?: CmdCurve[];
@@ -85,7 +87,14 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
         order: { field: 'i', type: 'quantitative' },
         detail: { field: 'line', type: 'nominal' },
         opacity: { field: 'a', type: 'quantitative', scale: null, legend: null },
-        color: { field: 'label', type: 'nominal', title: null, scale: { domain: labels, range: LINE_COLOURS.slice(0, Math.max(1, labels.length)) } },
+        color: {
+          field: 'label',
+          type: 'nominal',
+          title: null,
+          scale: { domain: labels, range: LINE_COLOURS.slice(0, Math.max(1, labels.length)) },
+          // One curve needs no legend: the title names it.
+          ...(labels.length === 1 ? { legend: null } : { legend: { orient: 'bottom-right', labelLimit: 260 } }),
+        },
       },
     });
   }
@@ -93,7 +102,7 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     config: PLOT_CONFIG,
-    ...(o.title ? { title: o.title } : {}),
+    ...(o.title ? { title: { text: o.title, ...(o.subtitle ? { subtitle: o.subtitle, subtitleFontSize: 10, subtitleColor: '#555' } : {}) } } : {}),
     width: o.width ?? 420,
     height: o.height ?? 520,
     layer: layers,

@@ -1,0 +1,13 @@
+export { buildGrid, gridFromIsochrones } from './buildGrid.js';
+export { gridToArrowBytes, readGridArrow, writeGridArrow, GRID_METADATA_KEY } from './gridArrow.js';
+export { formatGridInfo, gridInfo, type GridInfo } from './gridInfo.js';
+export { gridProvenance } from './gridProvenance.js';
+export { buildRows, GridSource, type GridRow, type GridSourceOptions } from './gridSource.js';
+export { locateIsochrone, locateRow, type AgeUnit, type GridIsochroneInfo, type GridMeta, type GridSourceFile, type GridTable, type MetallicityScale, type PhaseKind } from './gridTable.js';
+export { importGrid, toLogAge, type ImportResult } from './importGrid.js';
+export type { GridFileSpec, GridImportSpec } from './importSpec.js';
+export { fehToMh, mhToFeh, mhToZ, zToMh } from './metallicity.js';
+export { DERIVED_SEGMENTS, findLandmarks, prepareCurve, type PreparedCurve } from './phaseCoordinate.js';
+export { stackedText, stackedTextColumns, stackedTextSpec, writeStackedText } from './stackedText.js';
+export { assertGridValid, validateGrid, type GridProblem } from './validateGrid.js';
+export { loadGridSource } from './loadGridSource.js';

@@ -1,0 +1,264 @@
+/**
+ * One post-main-sequence phase of an isochrone as a curve in initial mass: log L, log R, core mass,
+ * current mass, phase fraction and the node-spacing variable of the star of initial mass m at the
+ * isochrone's age, as piecewise polynomials in m.
+ *
+ * Why: the stars of one post-main-sequence phase of an isochrone span a very narrow range of initial mass
+ * (often well under 1 per cent), and the node placement wants hundreds to thousands of points there, each
+ * of which would cost tens of powers and logarithms (HPT2000 section 5 plus the wind losses). Between the
+ * masses where a formula switches branch the state is smooth in m, so it is taken from exact evaluations at
+ * Chebyshev-Lobatto points and interpolated (barycentric Lagrange, `chebyshev.ts`). Each piece is sampled
+ * at 9 Lobatto points, which contain the 5 of the next lower order; the piece is kept (with its 9-point
+ * interpolant) only if the 5-point interpolant already reproduces the other 4 samples (to 3e-5 dex in L,
+ * 1e-4 dex in R, 3e-5 Msun in core mass, 2e-4 Msun in current mass and 3e-5 in phase fraction), which for
+ * these smooth functions leaves the 9-point one far more accurate; otherwise the piece is halved. Where the state is not smooth
+ * in m, the piece's variable is changed so that it is: on the giant branches v = ln T_lin(m), with T_lin
+ * the linear interpolant in m of the time left to the core law's singularity (log L is nearly linear in
+ * ln T, and the singularity lies just beyond the tip of the giant branch); in core helium burning, on the
+ * side of tau_x where L rises as (tau - tau_x)^xi with xi possibly below 1 (section 5.3), v = u^xi with u
+ * the piece's linear coordinate from that end. Known branch switches (M_HeF, M_FGB, the breaks of A_H, B, p and q) and, in
+ * core helium burning, the masses whose stars are just at tau_x or tau_y, split pieces from the start;
+ * validation catches kinks not known in advance (clamps of tau_bl or xi, the max in R_min). Tests compare
+ * nodes with `evolveStar`.
+ */
+import { Phase } from '../types.js';
+import { StellarTrack } from '../evolution/track.js';
+import type { EvolutionModel } from '../evolution/types.js';
+import { bracketedRoot } from '../evolution/rootFind.js';
+import { barycentricWeights, lobattoPoints } from './chebyshev.js';
+import type { MassLossInterpolant } from './massLossInterpolant.js';
+
+/** Samples per piece (Lobatto), and the nested lower order used to check it. */
+const K = 9;
+const K_CHECK = 5;
+const MAX_DEPTH = 14;
+/** Check tolerances per field: log L, log R, core mass, current mass, fraction. */
+const TOLERANCE = [3e-5, 1e-4, 3e-5, 2e-4, 3e-5];
+/** Numbers stored per piece for the map m -> v: a, b, T(a), T(b), exponent (NaN: not graded). */
+const ENDS = 5;
+
+/** Fields of the packed state. */
+export const LOG_L = 0;
+export const LOG_R = 1;
+export const CORE_MASS = 2;
+export const MASS = 3;
+export const FRACTION = 4;
+export const SPACING = 5;
+export const STATE_WIDTH = 6;
+
+export class PhaseCurve {
+  private phase: Phase = Phase.GiantBranch;
+  private model!: EvolutionModel;
+  private tMyr = 0;
+  private eta = 0.5;
+  private losses!: MassLossInterpolant;
+  private nPieces = 0;
+  /** Whether the curve's variable is ln T_lin (giant branches) rather than m. */
+  private logTime = false;
+  /** Masses where the CHeB luminosity starts rising as (tau - tau_x)^xi (graded pieces start there). */
+  private singular: number[] = [];
+  private hi: Float64Array = new Float64Array(32);
+  /** Per piece: the map m -> v (see ENDS). */
+  private ends: Float64Array = new Float64Array(32 * ENDS);
+  /** Per piece: the K sample points in the curve variable. */
+  private masses: Float64Array = new Float64Array(32 * K);
+  private samples: Float64Array = new Float64Array(32 * K * STATE_WIDTH);
+  private readonly track = new StellarTrack();
+  private readonly out = new Float64Array(3);
+  private readonly pts = new Float64Array(K);
+  private readonly ms = new Float64Array(K);
+  private readonly checkPts = new Float64Array(K_CHECK);
+  private readonly w = new Float64Array(K);
+  private readonly probe = new Float64Array(STATE_WIDTH);
+  private readonly pending = new Float64Array(K * STATE_WIDTH);
+  /** Exact evaluations made by the last build. */
+  evaluations = 0;
+
+  build(model: EvolutionModel, tMyr: number, eta: number, losses: MassLossInterpolant, phase: Phase, mLo: number, mHi: number, breaks: readonly number[]): void {
+    this.model = model;
+    this.tMyr = tMyr;
+    this.eta = eta;
+    this.losses = losses;
+    this.phase = phase;
+    this.nPieces = 0;
+    this.evaluations = 0;
+    this.logTime = phase === Phase.GiantBranch || phase === Phase.EarlyAGB;
+    this.singular = [];
+    if (phase === Phase.CoreHeliumBurning) {
+      // The interval starts at tau = 0; when tau_x = 0 (low and high masses), L rises as tau^xi there.
+      this.exactState(mLo, this.probe, 0);
+      if (this.track.he.tauX === 0) this.singular.push(mLo);
+    }
+    const loop = phase === Phase.CoreHeliumBurning ? this.loopBreaks(mLo, mHi) : [];
+    const all = [...breaks, ...loop].sort((x, y) => x - y);
+    let a = mLo;
+    for (const b of all) {
+      if (b > a * (1 + 1e-12) && b < mHi * (1 - 1e-12)) {
+        this.fit(a, b, 0);
+        a = b;
+      }
+    }
+    this.fit(a, mHi, 0);
+  }
+
+  /** Interpolated state of initial mass m0 into out[0..STATE_WIDTH-1]. */
+  at(m0: number, out: Float64Array): void {
+    // Pieces are few; a linear scan beats a search.
+    let p = 0;
+    const last = this.nPieces - 1;
+    while (p < last && m0 > this.hi[p]) p++;
+    const w = this.w;
+    barycentricWeights(this.variable(m0, p * ENDS), this.masses, K, w, p * K);
+    const base = p * K * STATE_WIDTH;
+    const s = this.samples;
+    for (let f = 0; f < STATE_WIDTH; f++) {
+      let v = 0;
+      for (let j = 0; j < K; j++) v += w[j] * s[base + j * STATE_WIDTH + f];
+      out[f] = v;
+    }
+  }
+
+  /** The exact state of initial mass m at the isochrone's age into out[o..]. */
+  exactState(m: number, out: Float64Array, o: number): void {
+    this.evaluations++;
+    const phase = this.phase;
+    const losses = this.losses;
+    const tr = this.track.setMass(this.model, m, this.eta).fillGiant();
+    if (phase === Phase.HertzsprungGap) tr.fillGap(losses.massEndHG(m));
+    else if (phase !== Phase.GiantBranch) tr.fillHelium(losses.massAtHeI(m, tr.gb.hasGB));
+    const x = tr.progressAt(phase, this.tMyr);
+    const mass = m - losses.lost(phase, m, x);
+    const fraction = tr.stateAt(phase, x, mass, this.out);
+    out[o + LOG_L] = this.out[0];
+    out[o + LOG_R] = this.out[1];
+    out[o + CORE_MASS] = this.out[2];
+    out[o + MASS] = mass;
+    out[o + FRACTION] = fraction;
+    // Node spacing: on the giant branches the time left to the core law's singularity, in which the
+    // track is nearly linear in m and log L nearly linear in its logarithm; elsewhere the phase fraction.
+    if (phase === Phase.GiantBranch || phase === Phase.EarlyAGB) {
+      const law = phase === Phase.GiantBranch ? tr.gb.law : tr.agb.law;
+      out[o + SPACING] = (Math.pow(10, this.out[0]) <= law.lx ? law.tInf1 : law.tInf2) - this.tMyr;
+    } else out[o + SPACING] = x;
+  }
+
+  /** The curve variable of mass m in the piece whose map starts at ends[e]. */
+  private variable(m: number, e: number): number {
+    const ends = this.ends;
+    if (this.logTime) return Math.log(ends[e + 2] + ((ends[e + 3] - ends[e + 2]) * (m - ends[e])) / (ends[e + 1] - ends[e]));
+    const g = ends[e + 4];
+    if (g === g) return Math.pow(Math.max(0, (m - ends[e]) / (ends[e + 1] - ends[e])), g);
+    return m;
+  }
+
+  /** The inverse map: mass of curve variable v in the piece whose map starts at ends[e]. */
+  private massOf(v: number, e: number): number {
+    const ends = this.ends;
+    const a = ends[e];
+    const b = ends[e + 1];
+    if (this.logTime) return a + ((b - a) * (Math.exp(v) - ends[e + 2])) / (ends[e + 3] - ends[e + 2]);
+    const g = ends[e + 4];
+    if (g === g) return a + (b - a) * Math.pow(v, 1 / g);
+    return v;
+  }
+
+  /** Masses in (mLo, mHi) whose stars are exactly at tau_x or tau_y of core helium burning (kinks of R). */
+  private loopBreaks(mLo: number, mHi: number): number[] {
+    const out: number[] = [];
+    const tr = this.track;
+    const gap = (m: number, which: number): number => {
+      tr.setMass(this.model, m, this.eta).fillGiant();
+      tr.fillHelium(this.losses.massAtHeI(m, tr.gb.hasGB));
+      const tau = tr.progressAt(Phase.CoreHeliumBurning, this.tMyr);
+      return tau - (which === 0 ? tr.he.tauX : tr.he.tauY);
+    };
+    for (let which = 0; which < 2; which++) {
+      const f = (m: number): number => gap(m, which);
+      const fa = f(mLo);
+      const fb = f(mHi);
+      if (fa * fb < 0) {
+        const m = bracketedRoot(f, mLo, mHi, fa, fb, 1e-12);
+        out.push(m);
+        if (which === 0) this.singular.push(m);
+      }
+    }
+    return out;
+  }
+
+  private fit(a: number, b: number, depth: number): void {
+    const pending = this.pending;
+    const ms = this.ms;
+    const pts = this.pts;
+    // Piece ends first: they fix the map m -> v.
+    this.exactState(a, pending, 0);
+    const xiA = this.phase === Phase.CoreHeliumBurning ? this.track.he.xi : Number.NaN;
+    this.exactState(b, pending, (K - 1) * STATE_WIDTH);
+    const e = this.nPieces * ENDS;
+    this.ensure(this.nPieces + 1);
+    const ends = this.ends;
+    ends[e] = a;
+    ends[e + 1] = b;
+    ends[e + 2] = pending[SPACING];
+    ends[e + 3] = pending[(K - 1) * STATE_WIDTH + SPACING];
+    // Grade only where L is the singular field (xi < 1); for xi >= 1 the rise is smooth enough in m.
+    ends[e + 4] = this.singular.includes(a) && xiA < 1 ? xiA : Number.NaN;
+    lobattoPoints(this.variable(a, e), this.variable(b, e), K, pts);
+    for (let j = 1; j < K - 1; j++) {
+      ms[j] = this.massOf(pts[j], e);
+      this.exactState(ms[j], pending, j * STATE_WIDTH);
+    }
+    // The 5-point subset (every second point) must already reproduce the other 4.
+    let ok = true;
+    if (depth < MAX_DEPTH && b - a > 1e-11 * b) {
+      const w = this.w;
+      const cp = this.checkPts;
+      for (let i = 0; i < K_CHECK; i++) cp[i] = pts[2 * i];
+      for (let j = 1; j < K && ok; j += 2) {
+        barycentricWeights(pts[j], cp, K_CHECK, w);
+        for (let f = 0; f < SPACING; f++) {
+          let v = 0;
+          for (let i = 0; i < K_CHECK; i++) v += w[i] * pending[2 * i * STATE_WIDTH + f];
+          if (!(Math.abs(v - pending[j * STATE_WIDTH + f]) <= TOLERANCE[f])) {
+            ok = false;
+            break;
+          }
+        }
+      }
+    }
+    if (!ok) {
+      const mid = 0.5 * (a + b);
+      this.fit(a, mid, depth + 1);
+      this.fit(mid, b, depth + 1);
+      return;
+    }
+    const p = this.nPieces++;
+    this.hi[p] = b;
+    this.masses.set(pts, p * K);
+    this.samples.set(pending, p * K * STATE_WIDTH);
+  }
+
+  private ensure(pieces: number): void {
+    if (pieces <= this.hi.length) return;
+    const n = 2 * pieces;
+    const grow = (x: Float64Array, len: number): Float64Array => {
+      const y = new Float64Array(len);
+      y.set(x);
+      return y;
+    };
+    this.hi = grow(this.hi, n);
+    this.ends = grow(this.ends, ENDS * n);
+    this.masses = grow(this.masses, n * K);
+    this.samples = grow(this.samples, n * K * STATE_WIDTH);
+  }
+
+  /** Forget the last build (the phase is absent from the isochrone). */
+  clear(): void {
+    this.nPieces = 0;
+    this.evaluations = 0;
+  }
+
+  /** Pieces of the last build (for tests and benchmarks). */
+  pieces(): number {
+    return this.nPieces;
+  }
+}
