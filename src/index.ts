@@ -6,3 +6,4 @@ export * from './config/index.js';
 export * from './catalog/index.js';
 export * from './pipeline/index.js';
 export * from './stellar/grid/index.js';
+export * from './likelihood/index.js';

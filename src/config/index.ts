@@ -3,5 +3,6 @@ export { loadConfig, loadGridMap, parseConfigText, resolveConfigPath, runDirecto
 export { configuredBands, type BandColumns, type PhotometryConfig } from './sections/photometry.js';
 export { CATALOGUE_FORMATS, type CatalogueConfig, type CutConfig } from './sections/catalogue.js';
 export type { OutputConfig } from './sections/output.js';
+export { likelihoodSection, type LikelihoodConfig } from './sections/likelihood.js';
 export { GRID_PHASE_NAMES, gridSection, type GridConfig } from './sections/grid.js';
 export { locateKey } from './locateKey.js';

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { catalogueSection } from './sections/catalogue.js';
+import { likelihoodSection } from './sections/likelihood.js';
 import { gridSection } from './sections/grid.js';
 import { modelSection } from './sections/model.js';
 import { outputSection } from './sections/output.js';
@@ -19,6 +20,7 @@ export const configSchema = z.strictObject({
   output: outputSection.default({ overwrite: false }),
   sampler: samplerSection.prefault({}),
   priors: priorsSection.optional(),
+  likelihood: likelihoodSection.prefault({}),
   grid: gridSection.optional(),
   model: modelSection.prefault({}),
 });

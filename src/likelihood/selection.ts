@@ -1,0 +1,215 @@
+/**
+ * The observed window and the selection normalisation.
+ *
+ * A star enters the catalogue when its observed magnitude in every limited band b lies in
+ * [bright_b, faint_b], and then with probability c(m) given by an optional completeness table in one band
+ * (linear interpolation, constant beyond the table's ends). For a model star of true magnitudes mu, observed
+ * with the typical errors at that magnitude (sigma_typ,b(mu_b), combined with sigmaExtra in quadrature),
+ * the probability of selection is a product over the limited bands:
+ *
+ *     P_b(mu_b) = Phi((faint - mu)/s) - Phi((bright - mu)/s)                        (no completeness)
+ *     P_b(mu_b) = int_bright^faint c(m) N(m | mu, s^2) dm                            (completeness band)
+ *
+ * The second is exact for a piecewise-linear c: on a piece where c(m) = alpha + beta m,
+ * int_u^v (alpha + beta m) N(m | mu, s^2) dm = (alpha + beta mu)[Phi(zv) - Phi(zu)] - beta s [phi(zv) - phi(zu)],
+ * z = (m - mu)/s, phi the standard normal density.
+ *
+ * Z (for singles, or binaries) is the IMF-weighted integral of P along the model sequence. Segments
+ * lying at least 8 sigma inside every limit (and where c = 1) contribute their whole weight; segments 8
+ * sigma outside contribute nothing; the rest are cut into pieces no longer than a quarter of the local
+ * sigma in any band and integrated with 4-point Gauss-Legendre. Z is computed per pattern of present bands:
+ * a star missing a band was selected on the bands it has.
+ */
+import { logNormalDiff, normalCdf } from './normalTail.js';
+import { logSegmentIntegral } from './segmentIntegral.js';
+import type { SegmentSet } from './segmentSet.js';
+
+/** Typical 1-sigma error against magnitude in one band: a piecewise-linear table, constant beyond its ends. */
+export interface ErrorLaw {
+  mag: Float64Array;
+  sigma: Float64Array;
+}
+
+export function errorAt(law: ErrorLaw, m: number): number {
+  const x = law.mag;
+  const n = x.length;
+  if (m <= x[0]) return law.sigma[0];
+  if (m >= x[n - 1]) return law.sigma[n - 1];
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (x[mid] <= m) lo = mid;
+    else hi = mid;
+  }
+  const t = (m - x[lo]) / (x[hi] - x[lo]);
+  return law.sigma[lo] + t * (law.sigma[hi] - law.sigma[lo]);
+}
+
+export interface CompletenessTable {
+  /** Index of the band, among the likelihood's bands. */
+  band: number;
+  mag: Float64Array;
+  fraction: Float64Array;
+}
+
+export function completenessAt(c: CompletenessTable, m: number): number {
+  const x = c.mag;
+  const n = x.length;
+  if (m <= x[0]) return c.fraction[0];
+  if (m >= x[n - 1]) return c.fraction[n - 1];
+  let k = 0;
+  while (x[k + 1] < m) k++;
+  const t = (m - x[k]) / (x[k + 1] - x[k]);
+  return c.fraction[k] + t * (c.fraction[k + 1] - c.fraction[k]);
+}
+
+/** int_u^v c(m) dm, for the uniform field density. */
+export function completenessIntegral(c: CompletenessTable, u: number, v: number): number {
+  // Trapezoids are exact on a piecewise-linear function; break at the table's nodes.
+  const pts = [u, ...Array.from(c.mag).filter((x) => x > u && x < v), v];
+  let s = 0;
+  for (let k = 0; k + 1 < pts.length; k++) s += 0.5 * (pts[k + 1] - pts[k]) * (completenessAt(c, pts[k]) + completenessAt(c, pts[k + 1]));
+  return s;
+}
+
+const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
+function stdPdf(z: number): number {
+  return INV_SQRT_2PI * Math.exp(-0.5 * z * z);
+}
+
+export class Selection {
+  readonly nBands: number;
+  /** Per band; +-Infinity where a band has no limit. */
+  readonly bright: Float64Array;
+  readonly faint: Float64Array;
+  readonly limited: Uint8Array;
+  readonly errors: ErrorLaw[];
+  readonly completeness?: CompletenessTable;
+  /** Magnitude below which the completeness is 1 everywhere (used to skip exact integration). */
+  private readonly fullUntil: number;
+
+  constructor(bright: Float64Array, faint: Float64Array, errors: ErrorLaw[], completeness?: CompletenessTable) {
+    this.nBands = bright.length;
+    this.bright = bright;
+    this.faint = faint;
+    this.errors = errors;
+    this.completeness = completeness;
+    this.limited = new Uint8Array(this.nBands);
+    for (let b = 0; b < this.nBands; b++) this.limited[b] = Number.isFinite(bright[b]) || Number.isFinite(faint[b]) ? 1 : 0;
+    if (completeness) this.limited[completeness.band] = 1;
+    let full = -Infinity;
+    if (completeness) {
+      const f = completeness.fraction;
+      if (f[0] >= 1) {
+        full = Infinity;
+        for (let k = 0; k < f.length; k++) {
+          if (f[k] < 1) {
+            full = completeness.mag[k - 1];
+            break;
+          }
+        }
+      }
+    }
+    this.fullUntil = full;
+  }
+
+  /** Probability that a star of true magnitude mu in band b is selected in that band. */
+  bandProbability(b: number, mu: number, sigmaExtra: number): number {
+    const se = errorAt(this.errors[b], mu);
+    const s = Math.sqrt(se * se + sigmaExtra * sigmaExtra);
+    const br = this.bright[b];
+    const fa = this.faint[b];
+    const c = this.completeness;
+    if (!c || c.band !== b) {
+      return Math.exp(logNormalDiff((br - mu) / s, (fa - mu) / s));
+    }
+    // Piecewise-linear completeness between the table's nodes, clipped to the window.
+    let total = 0;
+    let u = br;
+    const x = c.mag;
+    const n = x.length;
+    let k = 0;
+    while (u < fa) {
+      while (k < n && x[k] <= u) k++;
+      const v = Math.min(fa, k < n ? x[k] : Infinity);
+      const cu = completenessAt(c, Number.isFinite(u) ? u : x[0] - 1);
+      const cv = completenessAt(c, Number.isFinite(v) ? v : x[n - 1] + 1);
+      const beta = Number.isFinite(u) && Number.isFinite(v) && v > u ? (cv - cu) / (v - u) : 0;
+      const alpha = (Number.isFinite(u) ? cu - beta * u : cv - beta * v);
+      const zu = (u - mu) / s;
+      const zv = (v - mu) / s;
+      const dPhi = normalCdf(zv) - normalCdf(zu);
+      const dphi = (Number.isFinite(zv) ? stdPdf(zv) : 0) - (Number.isFinite(zu) ? stdPdf(zu) : 0);
+      total += (alpha + beta * mu) * dPhi - beta * s * dphi;
+      u = v;
+    }
+    return Math.max(0, total);
+  }
+
+  /**
+   * log Z: the IMF-weighted selection probability along the segments of `set` (restricted to the curves
+   * with finite `lnCurveW`, or all single-star segments when lnCurveW is undefined), for a star that has
+   * the bands in `mask` (bit b set = band b present).
+   */
+  logNormalisation(set: SegmentSet, lnCurveW: Float64Array | undefined, mask: number, sigmaExtra: number): number {
+    let maxL = -Infinity;
+    let acc = 0;
+    for (let s = 0; s < set.n; s++) {
+      const lw = lnCurveW === undefined ? 0 : lnCurveW[set.curve[s]];
+      if (lw === -Infinity) continue;
+      const l = lw + this.logSegmentSelected(set, s, mask, sigmaExtra);
+      if (l === -Infinity) continue;
+      if (l > maxL) {
+        acc = acc * Math.exp(maxL - l) + 1;
+        maxL = l;
+      } else acc += Math.exp(l - maxL);
+    }
+    return maxL + Math.log(acc);
+  }
+
+  private logSegmentSelected(set: SegmentSet, s: number, mask: number, sigmaExtra: number): number {
+    let inside = true;
+    let nPieces = 1;
+    for (let b = 0; b < this.nBands; b++) {
+      if (!this.limited[b] || !(mask & (1 << b))) continue;
+      const lo = set.lo[b][s];
+      const hi = set.hi[b][s];
+      const seLo = errorAt(this.errors[b], lo);
+      const seHi = errorAt(this.errors[b], hi);
+      const sMin = Math.sqrt(Math.min(seLo, seHi) ** 2 + sigmaExtra * sigmaExtra);
+      const sMax = Math.sqrt(Math.max(seLo, seHi) ** 2 + sigmaExtra * sigmaExtra);
+      const br = this.bright[b];
+      const fa = this.faint[b];
+      if (hi < br - 8 * sMax || lo > fa + 8 * sMax) return -Infinity;
+      const cutoff = this.completeness && this.completeness.band === b ? Math.min(fa, this.fullUntil) : fa;
+      if (!(lo >= br + 8 * sMax && hi <= cutoff - 8 * sMax)) {
+        inside = false;
+        nPieces = Math.max(nPieces, Math.ceil(Math.abs(set.delta[b][s]) / (0.25 * sMin)));
+      }
+    }
+    const c0 = set.c0[s];
+    const c1 = set.c1[s];
+    const c2 = set.c2[s];
+    if (inside) return logSegmentIntegral(0, 0, 0, c0, c1, c2);
+    nPieces = Math.min(nPieces, 4000);
+    let total = 0;
+    const h = 1 / nPieces;
+    for (let p = 0; p < nPieces; p++) {
+      for (let g = 0; g < 4; g++) {
+        const t = (p + 0.5 + 0.5 * GL4_X[g]) * h;
+        let prob = 1;
+        for (let b = 0; b < this.nBands && prob > 0; b++) {
+          if (!this.limited[b] || !(mask & (1 << b))) continue;
+          prob *= this.bandProbability(b, set.start[b][s] + t * set.delta[b][s], sigmaExtra);
+        }
+        total += 0.5 * h * GL4_W[g] * prob * Math.exp(c0 + t * (c1 + c2 * t));
+      }
+    }
+    return total > 0 ? Math.log(total) : -Infinity;
+  }
+}
+
+/** 4-point Gauss-Legendre nodes and weights on [-1, 1] (Abramowitz & Stegun 1964, Table 25.4). */
+export const GL4_X = [-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.8611363115940526];
+export const GL4_W = [0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538];
