@@ -1,8 +1,8 @@
 /**
  * A run directory shaped like one `coeval fit` writes, without running a fit: a manifest with a `fit`
  * section for the built-in model (B, V, I), AR(1) chains around a chosen posterior (scripts/ar1Run.ts), and
- * a stars.arrow of a synthetic catalogue of the invented cluster "Orrin 12" with made-up memberships. For
- * tests and for looking at plots and reports; the numbers mean nothing astrophysically.
+ * a stars.arrow of the invented cluster "Orrin 12" drawn with the likelihood's forward model at the truth,
+ * with made-up memberships. For tests and for looking at plots and reports: the chains are not a fit.
  */
 import mt19937 from '@stdlib/random-base-mt19937';
 import * as arrow from 'apache-arrow';
@@ -14,7 +14,7 @@ import { coevalVersion } from '../src/core/version.js';
 import { parseConfigText } from '../src/config/index.js';
 import { createRunDirectory, newRunId, RUN_FORMAT, RUN_LAYOUT, RunChainWriter, type RunManifest } from '../src/io/index.js';
 import type { FitManifest } from '../src/pipeline/fitManifest.js';
-import { isochroneTable } from '../src/pipeline/isochroneTable.js';
+import { simulateCatalog } from '../src/likelihood/index.js';
 import { builtinSetup } from '../src/pipeline/stellarModel.js';
 import type { EnsembleState } from '../src/sampler/types.js';
 import { AR1_BLOB_NAMES, ar1States } from './ar1Run.js';
@@ -123,74 +123,54 @@ export function writeFitRunFixture(dir: string, o: FitRunFixtureOptions): string
   return path;
 }
 
-/** A synthetic catalogue along the isochrone at the truth, with field stars, as stars.arrow bytes. */
+/**
+ * A catalogue drawn with the likelihood's forward model at the truth, as stars.arrow bytes, with made-up
+ * posterior memberships: near 1 for cluster stars (split between single and binary by the true
+ * component), near 0 for field stars, with some confusion.
+ */
 function starsArrow(o: FitRunFixtureOptions, truth: Partial<Record<ClusterParameterName, number>>, setup: ReturnType<typeof builtinSetup>, seed: number): Uint8Array {
-  const t = isochroneTable(setup.source, setup.extinction, { logAgeYr: truth.log_age ?? 10, feh: truth.feh ?? -1, bands: FIXTURE_BANDS, dm: truth.dm ?? 14.5, ebv: truth.ebv ?? 0.05 });
-  const iso = t.isochrone;
-  const rand = mt19937.factory({ seed: seed + 101 });
+  const law = { a: FIXTURE_ERRORS.a, b: FIXTURE_ERRORS.b, mRef: FIXTURE_ERRORS.mRef };
+  const window = { bright: FIXTURE_WINDOW.bright, faint: FIXTURE_WINDOW.faint };
+  const sim = simulateCatalog(
+    {
+      seed: seed + 101,
+      nStars: o.nStars,
+      bands: FIXTURE_BANDS,
+      theta: {
+        logAgeYr: truth.log_age ?? 10,
+        feh: truth.feh ?? -1,
+        dm: truth.dm ?? 14.5,
+        ebv: truth.ebv ?? 0.05,
+        fBinary: truth.f_binary ?? 0.25,
+        fField: o.fieldFraction ?? truth.f_field ?? 0.15,
+        sigmaExtra: truth.sigma_extra ?? 0,
+      },
+      errorLaw: { B: law, V: law, I: law },
+      likelihood: { limits: { B: window, V: window, I: window } },
+    },
+    setup.source,
+    setup.extinction,
+  );
+  const rand = mt19937.factory({ seed: seed + 202 });
   const u = (): number => (rand() + 0.5) / 4294967296;
-  const normal = (): number => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u());
-  const n = o.nStars;
-  const mags = FIXTURE_BANDS.map(() => new Float64Array(n));
-  const errs = FIXTURE_BANDS.map(() => new Float64Array(n));
-  const member = new Float64Array(n);
-  const mLo = iso.massInitial[0];
-  const mHi = iso.massInitial[iso.massInitial.length - 1];
-  const magAtMass = (b: number, m: number): number => {
-    const ms = iso.massInitial;
-    let k = 1;
-    while (k < ms.length - 1 && ms[k] < m) k++;
-    const f = (m - ms[k - 1]) / (ms[k] - ms[k - 1] || 1);
-    return t.mags[b][k - 1] + f * (t.mags[b][k] - t.mags[b][k - 1]);
-  };
-  const sigma = (m: number): number => FIXTURE_ERRORS.a + FIXTURE_ERRORS.b * 10 ** (0.4 * (m - FIXTURE_ERRORS.mRef));
-  const field = o.fieldFraction ?? 0.15;
-  for (let i = 0; i < n; i++) {
-    for (;;) {
-      const isField = u() < field;
-      const trueMag = FIXTURE_BANDS.map(() => 0);
-      if (isField) {
-        const v = FIXTURE_WINDOW.bright + (FIXTURE_WINDOW.faint - FIXTURE_WINDOW.bright) * u();
-        const bv = 0.2 + 1.4 * u();
-        trueMag[0] = v + bv;
-        trueMag[1] = v;
-        trueMag[2] = v - 1.1 * bv;
-      } else {
-        // Salpeter-like masses (x = 1.35) between the isochrone's ends; a quarter are binaries with q ~ U(0.1, 1).
-        const a = -1.35;
-        const m = (mLo ** a + u() * (mHi ** a - mLo ** a)) ** (1 / a);
-        const q = u() < 0.25 ? Math.max(0.1 + 0.9 * u(), mLo / m) : 0;
-        for (let b = 0; b < 3; b++) {
-          const m1 = magAtMass(b, m);
-          trueMag[b] = q > 0 ? -2.5 * Math.log10(10 ** (-0.4 * m1) + 10 ** (-0.4 * magAtMass(b, q * m))) : m1;
-        }
-      }
-      const obs = trueMag.map((m) => m + sigma(m) * normal());
-      if (obs.some((m) => m < FIXTURE_WINDOW.bright || m > FIXTURE_WINDOW.faint)) continue;
-      obs.forEach((m, b) => {
-        mags[b][i] = m;
-        errs[b][i] = sigma(trueMag[b]);
-      });
-      // Made-up posterior memberships: near 1 for members, near 0 for the field, with some confusion.
-      member[i] = isField ? 0.15 * u() : 0.8 + 0.2 * u();
-      break;
-    }
-  }
-  return encodeStars(mags, errs, member);
+  const comp = sim.truth.component;
+  const member = Float64Array.from(comp, (c) => (c === 2 ? 0.15 * u() : 0.8 + 0.2 * u()));
+  const binaryShare = Float64Array.from(comp, (c) => (c === 1 ? 0.8 : 0.2));
+  return encodeStars(sim.catalog.mag, sim.catalog.err, member, binaryShare);
 }
 
-function encodeStars(mags: Float64Array[], errs: Float64Array[], member: Float64Array): Uint8Array {
+function encodeStars(mags: Float64Array[], errs: Float64Array[], member: Float64Array, binaryShare: Float64Array): Uint8Array {
   const n = member.length;
   const cols: Record<string, arrow.Vector> = {
     id: arrow.vectorFromArray(Array.from({ length: n }, (_, i) => `O12-${String(i + 1).padStart(6, '0')}`), new arrow.Utf8()),
     row: arrow.makeVector(Int32Array.from({ length: n }, (_, i) => i)),
   };
   FIXTURE_BANDS.forEach((b, k) => {
-    cols[b] = arrow.makeVector(mags[k]);
-    cols[`${b}_err`] = arrow.makeVector(errs[k]);
+    cols[b] = arrow.makeVector(Float64Array.from(mags[k]));
+    cols[`${b}_err`] = arrow.makeVector(Float64Array.from(errs[k]));
   });
-  cols.p_single = arrow.makeVector(member.map((p) => 0.7 * p));
-  cols.p_binary = arrow.makeVector(member.map((p) => 0.3 * p));
+  cols.p_single = arrow.makeVector(member.map((p, i) => (1 - binaryShare[i]) * p));
+  cols.p_binary = arrow.makeVector(member.map((p, i) => binaryShare[i] * p));
   cols.p_field = arrow.makeVector(member.map((p) => 1 - p));
   cols.membership_prior = arrow.makeVector(new Float64Array(n).fill(Number.NaN));
   cols.mass_median = arrow.makeVector(new Float64Array(n).fill(Number.NaN));

@@ -1,18 +1,19 @@
 /**
- * A posterior-predictive catalogue: as many stars as the fit used (or `maxStars`), drawn with the likelihood's own
- * forward model (likelihood/simulate.ts, `simulateCatalog`) at a few posterior draws, each draw
- * contributing an equal share, so that the parameters' uncertainty shows in the spread. The selection
- * window, IMF, binaries and completeness come from the run's config; each band's photometric errors
- * follow sigma(m) = a + b 10^(0.4 (m - m_ref)), from the config's [likelihood.errors] or fitted to the
- * catalogue's own errors. With per-star membership priors, the field share is their complement's mean.
- *
- * The forward model is loaded by path at run time (see loadForwardModel), so that this module builds
- * whether or not the likelihood stage is present in this build.
+ * A posterior-predictive catalogue: as many stars as the fit used (or `maxStars`), drawn with the
+ * likelihood's own forward model (likelihood/simulate.ts, `simulateCatalog`) at a few posterior draws,
+ * each draw contributing an equal share, so that the parameters' uncertainty shows in the spread. The
+ * selection window, IMF, binaries and completeness come from the run's config ([likelihood], as the fit
+ * used them); each band's photometric errors follow sigma(m) = a + b 10^(0.4 (m - m_ref)), from the
+ * config's [likelihood.errors] or fitted to the catalogue's own errors. With per-star membership priors,
+ * the field share is their complement's mean. The forward model's field is uniform over the window, so a
+ * KDE field (likelihood.field.model = "kde") is not reproduced.
  */
 import type { BandId } from '../core/bands.js';
 import type { ClusterParameterName } from '../core/parameters.js';
+import { likelihoodSection, type LikelihoodConfig } from '../config/index.js';
 import type { StarsTable } from '../io/index.js';
-import type { ExtinctionModel, IsochroneSource } from '../stellar/index.js';
+import { simulateCatalog, type SimulationSpec } from '../likelihood/index.js';
+import { likelihoodOptionsFromConfig } from './likelihoodOptions.js';
 import { parameterAt, type RunPosterior } from './runPosterior.js';
 import type { StellarSetup } from './stellarModel.js';
 
@@ -20,31 +21,6 @@ export interface ErrorLawParameters {
   a: number;
   b: number;
   mRef: number;
-}
-
-/** The parts of the forward model's input and output used here (likelihood/simulate.ts). */
-interface ForwardSpec {
-  seed: number;
-  nStars: number;
-  bands: BandId[];
-  theta: { logAgeYr: number; feh: number; dm: number; ebv: number; fBinary: number; fField: number; sigmaExtra: number };
-  errorLaw: Partial<Record<BandId, ErrorLawParameters>>;
-  likelihood: Record<string, unknown>;
-  missingFraction?: Partial<Record<BandId, number>>;
-}
-type SimulateCatalog = (spec: ForwardSpec, source: IsochroneSource, extinction: ExtinctionModel) => { catalog: { nStars: number; mag: Float64Array[] }; truth: { component: Uint8Array } };
-
-/**
- * The likelihood stage's forward model, or undefined when this build has none. Loaded by a computed path
- * on purpose: the PPC is the only part of the report that needs the likelihood, and the rest works without.
- */
-export async function loadForwardModel(): Promise<SimulateCatalog | undefined> {
-  try {
-    const mod = (await import(new URL('../likelihood/index.js', import.meta.url).href)) as { simulateCatalog?: SimulateCatalog };
-    return mod.simulateCatalog;
-  } catch {
-    return undefined;
-  }
 }
 
 export interface PredictiveCatalogue {
@@ -60,6 +36,8 @@ export interface PredictiveCatalogue {
   errorLaws: Partial<Record<BandId, ErrorLawParameters & { source: 'config' | 'fitted' }>>;
   /** Where the window came from. */
   limitsSource: 'config' | 'catalogue';
+  /** The config asks for a KDE field, which the forward model does not draw (it draws a uniform one). */
+  kdeField: boolean;
 }
 
 /**
@@ -106,24 +84,11 @@ function finiteRange(a: ArrayLike<number>): [number, number] {
   return [lo, hi];
 }
 
-interface LikelihoodConfigSubset {
-  imf?: string;
-  binary_fraction_of?: string;
-  binaries?: { q_min?: number; q_slope?: number };
-  limits?: Partial<Record<BandId, { bright?: number; faint?: number }>>;
-  completeness?: { band: BandId; magnitudes: number[]; fractions: number[] };
-  errors?: Partial<Record<BandId, { a: number; b: number; m_ref: number }>>;
-}
-
-export async function posteriorPredictiveCatalogue(
-  p: RunPosterior,
-  stars: StarsTable,
-  setup: StellarSetup,
-  o: { seed: number; nDraws?: number; maxStars?: number; simulate: SimulateCatalog },
-): Promise<PredictiveCatalogue> {
+export function posteriorPredictiveCatalogue(p: RunPosterior, stars: StarsTable, setup: StellarSetup, o: { seed: number; nDraws?: number; maxStars?: number }): PredictiveCatalogue {
   const fit = p.fit!;
   const bands = fit.bands;
-  const lc = ((fit.config as unknown as { likelihood?: LikelihoodConfigSubset }).likelihood ?? {}) as LikelihoodConfigSubset;
+  // The section as the fit resolved it; a manifest written before [likelihood] existed gets its defaults.
+  const lc: LikelihoodConfig = (fit.config as { likelihood?: LikelihoodConfig }).likelihood ?? likelihoodSection.parse({});
   // The window: the config's limits where given, else the catalogue's own range (as the likelihood does).
   const limits: Partial<Record<BandId, { bright: number; faint: number }>> = {};
   let limitsSource: PredictiveCatalogue['limitsSource'] = 'config';
@@ -141,14 +106,8 @@ export async function posteriorPredictiveCatalogue(
     for (let i = 0; i < m.length; i++) if (!Number.isFinite(m[i])) missing++;
     missingFraction[b] = missing / Math.max(1, m.length);
   }
-  const likelihood: Record<string, unknown> = {
-    ...(lc.imf ? { imf: lc.imf } : {}),
-    ...(lc.binary_fraction_of ? { binaryFractionOf: lc.binary_fraction_of } : {}),
-    ...(lc.binaries?.q_min !== undefined ? { qMin: lc.binaries.q_min } : {}),
-    ...(lc.binaries?.q_slope !== undefined ? { qGamma: lc.binaries.q_slope } : {}),
-    ...(lc.completeness ? { completeness: { band: lc.completeness.band, mag: [...lc.completeness.magnitudes], fraction: [...lc.completeness.fractions] } } : {}),
-    limits,
-  };
+  const { imf, binaryFractionOf, qMin, qGamma, completeness } = likelihoodOptionsFromConfig(lc);
+  const likelihood: SimulationSpec['likelihood'] = { imf, binaryFractionOf, qMin, qGamma, completeness, limits };
   // With membership priors the likelihood uses them instead of f_field: the expected field share is 1 - mean(p).
   let priorSum = 0;
   let priorN = 0;
@@ -171,7 +130,7 @@ export async function posteriorPredictiveCatalogue(
     const i = Math.floor(((j + 0.5) * total) / k);
     const share = Math.floor(((j + 1) * n) / k) - Math.floor((j * n) / k);
     if (share === 0) continue;
-    const sim = o.simulate(
+    const sim = simulateCatalog(
       {
         seed: ((o.seed * 7919 + j) >>> 0) || 1,
         nStars: share,
@@ -196,5 +155,5 @@ export async function posteriorPredictiveCatalogue(
     component.set(sim.truth.component.subarray(0, share), filled);
     filled += share;
   }
-  return { bands, mag, nStars: filled, nDraws: k, component, errorLaws, limitsSource };
+  return { bands, mag, nStars: filled, nDraws: k, component, errorLaws, limitsSource, kdeField: lc.field.model === 'kde' };
 }

@@ -108,10 +108,7 @@ export async function buildRunFigures(runDir: string, o: RunFigureOptions = {}):
         if (name === 'cmd') figures.push(cmdFigure(p, stars as StarsTable, setup, { ...common, nIsochrones: o.nIsochrones ?? FIGURE_DEFAULTS.nIsochrones }));
         else {
           const { ppcFigure } = await import('./figures/ppcFigure.js');
-          const f = await ppcFigure(p, stars as StarsTable, setup, { ...common, maxStars: o.ppcStars ?? FIGURE_DEFAULTS.ppcStars });
-          if (typeof f !== 'string') figures.push(f);
-          else if (asked) throw new UsageError(`cannot draw the ppc figure: ${f}`, { hint: 'ask for the other figures' });
-          else skipped.push({ name, reason: f });
+          figures.push(ppcFigure(p, stars as StarsTable, setup, { ...common, maxStars: o.ppcStars ?? FIGURE_DEFAULTS.ppcStars }));
         }
         break;
       }

@@ -11,7 +11,7 @@ import { writeAr1Run } from '../../scripts/ar1Run.js';
 import { writeFitRunFixture } from '../../scripts/fitRunFixture.js';
 import { readManifest } from '../../src/io/index.js';
 import { defaultCmdAxes } from '../../src/pipeline/figures/cmdAxes.js';
-import { loadForwardModel, posteriorPredictiveCatalogue } from '../../src/pipeline/posteriorPredictive.js';
+import { posteriorPredictiveCatalogue } from '../../src/pipeline/posteriorPredictive.js';
 import { buildRunFigures, plotRun } from '../../src/pipeline/runPlots.js';
 import { runStellarSetup } from '../../src/pipeline/figures/runStellarSetup.js';
 import { readStarsTable } from '../../src/io/index.js';
@@ -51,7 +51,6 @@ const testbedRun = writeAr1Run(join(dir, 'testbed'), {
   seed: 4,
 });
 const MODEL = readManifest(fitRun).provenance!.model;
-const forward = await loadForwardModel();
 
 /** The text of every <text> element (and its <tspan> lines), joined by spaces: titles wrap over lines. */
 function svgText(svg: string): string {
@@ -63,7 +62,8 @@ describe('figures of a fit run', async () => {
   const fig = (name: string): string => r.figures.find((f) => f.name === name)?.svg ?? '';
 
   it('makes every figure the run has data for, each a plain SVG', () => {
-    expect(r.figures.map((f) => f.name)).toEqual(['corner', 'trace', 'tau', 'cmd', 'ppc'].filter((n) => r.skipped.every((s) => s.name !== n)));
+    expect(r.figures.map((f) => f.name)).toEqual(['corner', 'trace', 'tau', 'cmd', 'ppc']);
+    expect(r.skipped).toEqual([]);
     for (const f of r.figures) {
       expect(f.svg.startsWith('<svg'), f.name).toBe(true);
       expect(f.svg.trimEnd().endsWith('</svg>'), f.name).toBe(true);
@@ -112,7 +112,7 @@ describe('figures of a fit run', async () => {
     expect(caption).toContain(MODEL);
   });
 
-  it.runIf(forward)('PPC: the observed and a simulated CMD side by side, on the same axes', () => {
+  it('PPC: the observed and a simulated CMD side by side, on the same axes', () => {
     const svg = fig('ppc');
     const text = svgText(svg);
     expect(text).toContain('observed (1,500 stars)');
@@ -126,10 +126,10 @@ describe('figures of a fit run', async () => {
     for (const t of colourTicks) expect(colourTicks.filter((x) => x === t).length, t).toBe(2);
   });
 
-  it.runIf(forward)('PPC catalogue: as many stars as observed, split over the draws, with the expected field share', async () => {
+  it('PPC catalogue: as many stars as observed, split over the draws, with the expected field share', async () => {
     const stars = (await readStarsTable(fitRun))!;
     const setup = await runStellarSetup(r.posterior.fit!);
-    const sim = await posteriorPredictiveCatalogue(r.posterior, stars, setup, { seed: 3, nDraws: 7, simulate: forward! });
+    const sim = posteriorPredictiveCatalogue(r.posterior, stars, setup, { seed: 3, nDraws: 7 });
     expect(sim.nStars).toBe(N_STARS);
     expect(sim.nDraws).toBe(7);
     for (const m of sim.mag) expect(m.length).toBe(N_STARS);
@@ -146,16 +146,12 @@ describe('figures of a fit run', async () => {
     });
   });
 
-  it.runIf(forward)('PPC of a catalogue larger than the cap: as many observed stars, chosen at random, beside the simulated ones', async () => {
+  it('PPC of a catalogue larger than the cap: as many observed stars, chosen at random, beside the simulated ones', async () => {
     const c = await buildRunFigures(fitRun, { which: ['ppc'], ppcStars: 600, maxPoints: 300, seed: 2 });
     const text = svgText(c.figures[0].svg);
     expect(text).toContain('observed (random 600 of 1,500)');
     expect(text).toContain('simulated from the posterior (600 stars)');
     expect(c.figures[0].caption).toMatch(/^Left: a random 600 of the 1,500 observed stars, as many as were simulated/);
-  });
-
-  it.runIf(!forward)('PPC is skipped, with the reason, when this build has no forward model', () => {
-    expect(r.skipped).toEqual([{ name: 'ppc', reason: expect.stringMatching(/no forward model/) }]);
   });
 
   it('plot writes plots/<name>.svg and, with png, a PNG of each', async () => {

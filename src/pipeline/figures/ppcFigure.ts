@@ -5,7 +5,7 @@ import { cmdPlotSpec } from '../../report/plots/cmdPlot.js';
 import { sideBySideSpec } from '../../report/plots/sideBySide.js';
 import { describeThinning, thinPoints } from '../../report/plots/thinPoints.js';
 import type { CmdAxes } from '../isochronePlot.js';
-import { loadForwardModel, posteriorPredictiveCatalogue, type PredictiveCatalogue } from '../posteriorPredictive.js';
+import { posteriorPredictiveCatalogue, type PredictiveCatalogue } from '../posteriorPredictive.js';
 import type { RunPosterior } from '../runPosterior.js';
 import type { StellarSetup } from '../stellarModel.js';
 import { colourTitle } from './cmdAxes.js';
@@ -20,7 +20,7 @@ function lawText(b: BandId, l: NonNullable<PredictiveCatalogue['errorLaws'][Band
 
 /**
  * The observed CMD beside one simulated from the posterior with the likelihood's forward model, on the
- * same axes and thinned the same way. Returns the reason instead when this build has no forward model.
+ * same axes and thinned the same way.
  */
 /** A random `n` of `total` indices (seeded), as a mask. */
 function randomSubset(total: number, n: number, seed: number): Uint8Array {
@@ -37,11 +37,9 @@ function randomSubset(total: number, n: number, seed: number): Uint8Array {
   return mask;
 }
 
-export async function ppcFigure(p: RunPosterior, stars: StarsTable, setup: StellarSetup, o: { axes: CmdAxes; seed: number; maxPoints: number; maxStars: number }): Promise<RunFigure | string> {
-  const simulate = await loadForwardModel();
-  if (!simulate) return 'this build of coeval has no forward model (the likelihood stage), which the posterior-predictive catalogue needs';
+export function ppcFigure(p: RunPosterior, stars: StarsTable, setup: StellarSetup, o: { axes: CmdAxes; seed: number; maxPoints: number; maxStars: number }): RunFigure {
   const fit = p.fit!;
-  const sim = await posteriorPredictiveCatalogue(p, stars, setup, { seed: o.seed, simulate, maxStars: o.maxStars });
+  const sim = posteriorPredictiveCatalogue(p, stars, setup, { seed: o.seed, maxStars: o.maxStars });
   const obs = starColourMag(stars, o.axes);
   // A capped simulation is compared with as many observed stars, chosen at random, so that both panels
   // show catalogues of one size (the axes still follow the whole catalogue's members).
@@ -78,7 +76,7 @@ export async function ppcFigure(p: RunPosterior, stars: StarsTable, setup: Stell
     caption:
       `Left: ${subset ? `a random ${sim.nStars.toLocaleString('en-US')} of the ${stars.nStars.toLocaleString('en-US')} observed stars, as many as were simulated` : `the ${stars.nStars.toLocaleString('en-US')} observed stars`} (${describeThinning(thinObs)}${!subset && dom.outside > 0 ? `; ${dom.outside.toLocaleString('en-US')} lie beyond the axes` : ''}). ` +
       `Right: ${sim.nStars.toLocaleString('en-US')} stars simulated with the likelihood's own forward model at ${sim.nDraws} draws from the posterior (about ${perDraw.toLocaleString('en-US')} each; ${nField.toLocaleString('en-US')} of them field stars), drawn the same way (${describeThinning(thinSim)}). ` +
-      `Same axes as the observed CMD${outside > 0 ? ` (${outside.toLocaleString('en-US')} simulated stars fall beyond them and are not shown)` : ''}. The selection window is ${sim.limitsSource === 'config' ? 'the config\'s limits' : 'the observed range in each band'}, the IMF, binaries and completeness are the config's, and the photometric errors follow sigma(m) ${lawSource} (${laws}). ` +
+      `Same axes as the observed CMD${outside > 0 ? ` (${outside.toLocaleString('en-US')} simulated stars fall beyond them and are not shown)` : ''}. The selection window is ${sim.limitsSource === 'config' ? 'the config\'s limits' : 'the observed range in each band'}, the IMF, binaries and completeness are the config's${sim.kdeField ? ' (but the field is drawn uniform over the window: the forward model has no KDE field)' : ''}, and the photometric errors follow sigma(m) ${lawSource} (${laws}). ` +
       `If the model describes the data, the two panels look alike: compare the width of the main sequence, the turnoff and subgiant branch, the giant branch, the binary sequence and the field, and how many stars each holds. Stars that no panel on the right reproduces (e.g. blue stragglers) are outside the model. Model: ${fit.model.name}.`,
     spec: sideBySideSpec(
       [
