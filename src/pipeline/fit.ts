@@ -65,6 +65,8 @@ export interface FitOptions {
   warn?: (line: string) => void;
   /** Posterior draws for stars.arrow (default 200). */
   starDraws?: number;
+  /** Write plots/ (SVG and PNG) and report.html after sampling (default true; `coeval report` can do it later). */
+  report?: boolean;
 }
 
 export interface FitResult {
@@ -475,6 +477,19 @@ export async function fit(options: FitOptions): Promise<FitResult> {
   log(`per-star memberships and masses over ${starDraws} posterior draws`);
   await writeStars(dir, m, prep, diagnosis, starDraws);
   rec.timings.stars = (now() - t) / 1000;
+  if (options.report !== false) {
+    t = now();
+    log('plots and report.html');
+    try {
+      await writeFiguresAndReport(dir, rec.seed);
+    } catch (err) {
+      // The posterior is already safe on disk; a figure that fails must not lose the run.
+      const msg = `the plots or the report could not be written (${(err as Error).message}); the run itself is complete: try coeval report ${dir}`;
+      warnings.push(msg);
+      warn(msg);
+    }
+    rec.timings.report = (now() - t) / 1000;
+  }
   rec.timings.total = (rec.timings.total ?? 0) + (now() - tStart) / 1000;
   m.status = 'finished';
   writeManifest(dir, m);
@@ -545,6 +560,23 @@ async function writeDiagnosisFiles(dir: string, d: RunDiagnosis): Promise<void> 
     ['tex', 'latex'],
   ];
   for (const [ext, format] of forms) writeFileAtomic(join(dir, RUN_LAYOUT.summary(ext)), `${formatSummary(d.summary, format, ctx)}\n`);
+}
+
+/** plots/<name>.svg and .png and report.html, from one build of the figures (the PPC is costly). */
+async function writeFiguresAndReport(dir: string, seed: number): Promise<void> {
+  const { buildRunFigures } = await import('./runPlots.js');
+  const { reportContent } = await import('./runReport.js');
+  const { renderReportHtml } = await import('../report/html.js');
+  const { svgToPng } = await import('../report/render.js');
+  // The figures' seed must be >= 1 (mt19937); the run seed may be 0.
+  const figures = await buildRunFigures(dir, { seed: (seed % 0xfffffffe) + 1 });
+  const plots = join(dir, RUN_LAYOUT.plotsDir);
+  mkdirSync(plots, { recursive: true });
+  for (const f of figures.figures) {
+    writeFileAtomic(join(plots, `${f.name}.svg`), f.svg);
+    writeFileAtomic(join(plots, `${f.name}.png`), await svgToPng(f.svg, 2));
+  }
+  writeFileAtomic(join(dir, RUN_LAYOUT.report), renderReportHtml(reportContent(figures)));
 }
 
 async function writeStars(dir: string, m: FitRunManifest, prep: Prepared, d: RunDiagnosis, maxDraws: number): Promise<void> {

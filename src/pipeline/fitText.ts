@@ -40,8 +40,8 @@ export function formatFitResult(r: FitResult): string {
     lines.push(`truth (simulated catalogue): ${tc.map((c) => `${c.name} ${Number(c.truth.toPrecision(6))} ${c.inside95 ? 'inside' : 'OUTSIDE'} [${Number(c.p2_5.toPrecision(5))}, ${Number(c.p97_5.toPrecision(5))}]`).join('; ')}`);
   }
   lines.push(
-    `time: ${sec(t.total)} in all; check ${sec(t.check)}, model and likelihood ${sec(t.setup)}, workers ${sec(t.workers)}, initialisation ${sec(t.initialisation)} (${r.evaluations.initialisation} evaluations), sampling ${sec(t.sampling)} (${r.evaluations.sampling.toLocaleString('en-US')} evaluations, ${r.evaluations.msPerEvaluation.toPrecision(3)} ms each per worker), diagnostics ${sec(t.diagnostics)}, per-star results ${sec(t.stars)}`,
-    `run directory: ${r.runDir} (manifest.json, chains/, checkpoint.json, stars.arrow, diagnostics.json, summary.txt/csv/json/tex)`,
+    `time: ${sec(t.total)} in all; check ${sec(t.check)}, model and likelihood ${sec(t.setup)}, workers ${sec(t.workers)}, initialisation ${sec(t.initialisation)} (${r.evaluations.initialisation} evaluations), sampling ${sec(t.sampling)} (${r.evaluations.sampling.toLocaleString('en-US')} evaluations, ${r.evaluations.msPerEvaluation.toPrecision(3)} ms each per worker), diagnostics ${sec(t.diagnostics)}, per-star results ${sec(t.stars)}${t.report === undefined ? '' : `, plots and report ${sec(t.report)}`}`,
+    `run directory: ${r.runDir} (manifest.json, chains/, checkpoint.json, stars.arrow, diagnostics.json, summary.txt/csv/json/tex${t.report === undefined ? '' : ', plots/, report.html'})`,
   );
   return lines.join('\n');
 }

@@ -10,6 +10,7 @@ export const fitCommand: CommandSpec = {
       .option('overwrite', { type: 'boolean', default: false, describe: 'replace an existing run directory' })
       .option('workers', { type: 'string', describe: 'worker threads: a number (0 = main thread) or auto (default: [sampler] workers)' })
       .option('seed', { type: 'number', describe: 'run seed (default: [sampler] seed, else drawn and recorded)' })
+      .option('report', { type: 'boolean', default: true, describe: 'write plots/ and report.html after sampling (--no-report: skip; coeval report can make them later)' })
       .option('out', { type: 'string', describe: 'the run directory (default: [output] dir, else runs/<config name>)' }),
   async run(args, ctx) {
     const { fit } = await import('../../pipeline/fit.js');
@@ -33,6 +34,7 @@ export const fitCommand: CommandSpec = {
       workers,
       seed: args.seed as number | undefined,
       runDir: args.out as string | undefined,
+      report: args.report as boolean,
       observers: [progressReporter({ quiet: ctx.out.quiet })],
       log: (line) => ctx.out.info(line),
       warn: (line) => ctx.out.warn(line),
