@@ -21,7 +21,7 @@ import { dirname, join, resolve } from 'node:path';
 import type { Catalog } from '../catalog/types.js';
 import { writeFileAtomic } from '../core/atomicWrite.js';
 import type { BandId } from '../core/bands.js';
-import { ConfigError, InputError, InterruptedError, SamplingError, UsageError } from '../core/errors.js';
+import { ConfigError, InputError, InterruptedError, OutputError, SamplingError, UsageError } from '../core/errors.js';
 import type { ClusterParameterName } from '../core/parameters.js';
 import { coevalVersion } from '../core/version.js';
 import { applyOverrides } from '../config/overrides.js';
@@ -85,7 +85,7 @@ interface FitRecord extends FitManifestSection {
   workers: number;
   catalogue: FitManifestSection['catalogue'] & { sha256: string };
   truthFile?: string;
-  initialisation?: { method: string; optima?: { logPosterior: number; iterations: number; converged: boolean }[]; start?: Record<string, number> };
+  initialisation?: { method: string; optima?: { logPosterior: number; iterations: number; converged: boolean }[]; start?: Record<string, number>; widths?: Record<string, number> };
   likelihoodNotes: string[];
   evaluations: { initialisation: number; sampling: number };
   stoppedBy?: RunResult['stoppedBy'];
@@ -393,7 +393,14 @@ export async function fit(options: FitOptions): Promise<FitResult> {
       status: 'running',
       fit: fitRecord,
     };
-    dir = createRunDirectory(dir, manifest, options.overwrite || c.output.overwrite ? 'overwrite' : 'new');
+    try {
+      dir = createRunDirectory(dir, manifest, options.overwrite || c.output.overwrite ? 'overwrite' : 'new');
+    } catch (err) {
+      if (err instanceof OutputError && existsSync(dir)) {
+        throw new OutputError('the run directory already exists', { where: { file: dir }, hint: `continue it with coeval fit --resume ${dir}, write elsewhere with --out DIR, or replace it with --overwrite` });
+      }
+      throw err;
+    }
     log(`run directory ${dir} (run ${runId}, seed ${seed})`);
   }
   const m = manifest as FitRunManifest;
@@ -536,13 +543,22 @@ async function initialise(
     case 'optimum': {
       log(`initialisation: Nelder-Mead from the best ${s.init_starts} of ${Math.max(8 * ndim, 4 * s.init_starts)} prior draws`);
       const o = await optimise(evaluator, space, seed, s.init_starts);
-      const scale = Float64Array.from(o.spread, (x) => s.init_scale * x);
       log(`optimum: log-posterior ${o.runs.map((r) => r.logPosterior.toFixed(2)).join(', ')} (${o.evaluations} evaluations); start ${names.map((n, j) => `${n} ${Number(o.best[j].toPrecision(5))}`).join(', ')}`);
-      const { samplers } = await createEnsembles({ ...base, init: { kind: 'ball', center: o.best, scale } });
+      // Walkers start from the Laplace approximation at the optimum (laplaceStart.ts), so that each
+      // ensemble begins with about the posterior's spread; init_scale x the prior's spread is the first step.
+      const { laplaceStart } = await import('./laplaceStart.js');
+      const lap = await laplaceStart(evaluator, o.best, Float64Array.from(o.spread, (x) => s.init_scale * x));
+      log(`start: ${lap.correlated ? 'Gaussian from the Hessian at the optimum' : 'independent normals (the Hessian was not positive definite)'}, conditional widths ${names.map((n, j) => `${n} ${Number(lap.sigma[j].toPrecision(2))}`).join(', ')} (${lap.evaluations} evaluations)`);
+      const { samplers } = await createEnsembles({ ...base, init: { kind: 'prior', draw: lap.draw } });
       return {
         samplers,
-        evaluations: o.evaluations + nEnsembles * nWalkers,
-        record: { method: `Nelder-Mead from the best ${o.runs.length} prior draws, then a ball of width ${s.init_scale} x the prior's spread`, optima: o.runs, start: asRecord(o.best) },
+        evaluations: o.evaluations + lap.evaluations + nEnsembles * nWalkers,
+        record: {
+          method: `Nelder-Mead from the best ${o.runs.length} prior draws, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
+          optima: o.runs,
+          start: asRecord(o.best),
+          widths: asRecord(lap.sigma),
+        },
       };
     }
   }
