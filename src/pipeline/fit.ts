@@ -257,7 +257,7 @@ async function priorDraws(evaluator: Evaluator, space: ParameterSpace, rng: Samp
 async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: number, starts: number): Promise<{ best: Float64Array; spread: Float64Array; runs: { logPosterior: number; iterations: number; converged: boolean }[]; evaluations: number }> {
   const ndim = space.free.length;
   const rng = SamplerRng.fromSeed(seed, 0xfffffff0);
-  const nDraws = Math.max(8 * ndim, 4 * starts);
+  const nDraws = Math.max(64 * ndim, 4 * starts);
   const draws = await priorDraws(evaluator, space, rng, nDraws);
   // Each parameter's scale: the spread of its prior (from quantiles; works for unbounded priors too).
   const spread = Float64Array.from(space.priors, (p) => {
@@ -276,11 +276,25 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
     return -out[0];
   };
   const step = new Float64Array(ndim).fill(0.1);
-  const results = await Promise.all(
-    draws.x
-      .slice(0, Math.min(starts, draws.x.length))
-      .map((x0) => nelderMead(negLogProb, Float64Array.from(x0, (v, j) => v / spread[j]), { step, fTolerance: 0.05, xTolerance: 1e-3, maxIterations: 150 * ndim })),
-  );
+  const restartStep = new Float64Array(ndim).fill(0.02);
+  // Nelder-Mead stalls on narrow curved ridges (the age-[Fe/H]-distance degeneracy of a CMD, thousands of
+  // log-posterior units high for a large catalogue with small errors); restarting it from its own answer
+  // with a fresh simplex until a restart gains less than 0.5 is the usual remedy (Press et al. 2007,
+  // Numerical Recipes 3rd ed., section 10.5).
+  const polish = async (x0: Float64Array): Promise<{ x: Float64Array; f: number; iterations: number; converged: boolean }> => {
+    const opts = { fTolerance: 0.05, xTolerance: 1e-3, maxIterations: 150 * ndim };
+    let r = await nelderMead(negLogProb, Float64Array.from(x0, (v, j) => v / spread[j]), { ...opts, step });
+    let iterations = r.iterations;
+    for (let k = 0; k < 8; k++) {
+      const again = await nelderMead(negLogProb, r.x, { ...opts, step: restartStep });
+      iterations += again.iterations;
+      const gain = r.f - again.f;
+      if (again.f < r.f) r = again;
+      if (!(gain > 0.5)) break;
+    }
+    return { x: r.x, f: r.f, iterations, converged: r.converged };
+  };
+  const results = await Promise.all(draws.x.slice(0, Math.min(starts, draws.x.length)).map((x0) => polish(x0)));
   for (const r of results) for (let j = 0; j < ndim; j++) r.x[j] *= spread[j];
   let best = 0;
   for (let i = 1; i < results.length; i++) if (results[i].f < results[best].f) best = i;
@@ -541,7 +555,7 @@ async function initialise(
       return { samplers, evaluations: nEnsembles * nWalkers, record: { method: `ball of width ${s.init_scale} around init_point`, start: asRecord(center) } };
     }
     case 'optimum': {
-      log(`initialisation: Nelder-Mead from the best ${s.init_starts} of ${Math.max(8 * ndim, 4 * s.init_starts)} prior draws`);
+      log(`initialisation: Nelder-Mead (restarted until it stops gaining) from the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws`);
       const o = await optimise(evaluator, space, seed, s.init_starts);
       log(`optimum: log-posterior ${o.runs.map((r) => r.logPosterior.toFixed(2)).join(', ')} (${o.evaluations} evaluations); start ${names.map((n, j) => `${n} ${Number(o.best[j].toPrecision(5))}`).join(', ')}`);
       // Walkers start from the Laplace approximation at the optimum (laplaceStart.ts), so that each
