@@ -498,6 +498,9 @@ export async function fit(options: FitOptions): Promise<FitResult> {
   log(`per-star memberships and masses over ${starDraws} posterior draws`);
   await writeStars(dir, m, prep, diagnosis, starDraws);
   rec.timings.stars = (now() - t) / 1000;
+  // The run is complete before the figures: the report reads the status from the manifest.
+  m.status = 'finished';
+  writeManifest(dir, m);
   if (options.report !== false) {
     t = now();
     log('plots and report.html');
