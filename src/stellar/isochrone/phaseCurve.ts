@@ -46,6 +46,9 @@ export const FRACTION = 4;
 export const SPACING = 5;
 export const STATE_WIDTH = 6;
 
+/** Barycentric weights of the K Lobatto points up to a common factor: (-1)^j, halved at the ends. */
+const LOBATTO_SIGNS = Float64Array.from({ length: K }, (_, j) => (j & 1 ? -1 : 1) * (j === 0 || j === K - 1 ? 0.5 : 1));
+
 export class PhaseCurve {
   private phase: Phase = Phase.GiantBranch;
   private model!: EvolutionModel;
@@ -107,15 +110,41 @@ export class PhaseCurve {
     let p = 0;
     const last = this.nPieces - 1;
     while (p < last && m0 > this.hi[p]) p++;
-    const w = this.w;
-    barycentricWeights(this.variable(m0, p * ENDS), this.masses, K, w, p * K);
-    const base = p * K * STATE_WIDTH;
+    const x = this.variable(m0, p * ENDS);
+    const xs = this.masses;
     const s = this.samples;
-    for (let f = 0; f < STATE_WIDTH; f++) {
-      let v = 0;
-      for (let j = 0; j < K; j++) v += w[j] * s[base + j * STATE_WIDTH + f];
-      out[f] = v;
+    const o = p * K;
+    // Barycentric formula (second form), all fields in one pass and one division by the weights' sum.
+    let sw = 0;
+    let f0 = 0;
+    let f1 = 0;
+    let f2 = 0;
+    let f3 = 0;
+    let f4 = 0;
+    let f5 = 0;
+    for (let j = 0; j < K; j++) {
+      const d = x - xs[o + j];
+      const r = (o + j) * STATE_WIDTH;
+      if (d === 0) {
+        for (let f = 0; f < STATE_WIDTH; f++) out[f] = s[r + f];
+        return;
+      }
+      const c = LOBATTO_SIGNS[j] / d;
+      sw += c;
+      f0 += c * s[r];
+      f1 += c * s[r + 1];
+      f2 += c * s[r + 2];
+      f3 += c * s[r + 3];
+      f4 += c * s[r + 4];
+      f5 += c * s[r + 5];
     }
+    const inv = 1 / sw;
+    out[0] = f0 * inv;
+    out[1] = f1 * inv;
+    out[2] = f2 * inv;
+    out[3] = f3 * inv;
+    out[4] = f4 * inv;
+    out[5] = f5 * inv;
   }
 
   /** The exact state of initial mass m at the isochrone's age into out[o..]. */
