@@ -5,3 +5,4 @@ export { chainSchema, CHAIN_FORMAT, LOG_COLUMNS, type ChainFileHeader } from './
 export { RunChainWriter, readRunChains, type RunDraws, type RunChainWriterOptions } from './runChains.js';
 export { readManifest, writeManifest, runManifestSchema, MANIFEST_FILE, RUN_FORMAT, type RunManifest } from './manifest.js';
 export { createRunDirectory, openRunDirectory, newRunId, RUN_LAYOUT, type RunDirectoryMode } from './runDirectory.js';
+export { readStarsTable, type StarsTable } from './starsTable.js';

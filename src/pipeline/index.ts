@@ -5,3 +5,6 @@ export { gridStep, type GridCheck } from './gridCheck.js';
 export { gridImportSpec, gridSourceFromConfig, loadConfiguredGrid, stellarSetupFromConfig, type LoadedGrid } from './gridModel.js';
 export { builtinSetup, type StellarSetup } from './stellarModel.js';
 export { isochroneTable, isochroneCsv, PHASE_LABELS, type IsochroneTable } from './isochroneTable.js';
+export { buildRunFigures, plotRun, parseWhich, FIGURE_DEFAULTS, type RunFigureOptions, type RunFigures, type RenderedFigure, type WrittenPlot } from './runPlots.js';
+export { reportRun, reportContent, type ReportResult } from './runReport.js';
+export { FIGURE_NAMES, type FigureName } from './figures/runFigure.js';

@@ -23,9 +23,22 @@ export function diagnosisTable(d: Diagnosis): { header: string[]; rows: string[]
   return { header, rows };
 }
 
+/** The lines under the diagnosis table: acceptance, tau and burn-in, thresholds, conventions, methods. */
+export function diagnosisNotes(d: Diagnosis): string[] {
+  const acc = d.acceptance;
+  return [
+    `acceptance: ${num(acc.overall, 3)} overall; per ensemble ${acc.perEnsemble.map((a) => num(a, 3)).join(', ')}; ${acc.stuck.length} stuck walker(s).`,
+    `tau_max ${num(d.tauMax, 3)} steps; suggested burn-in ${Number.isFinite(d.suggestedBurnIn) ? d.suggestedBurnIn : 'NaN'} steps (${THRESHOLDS.burnInTauMultiple} tau_max), used ${d.discard}.`,
+    `thresholds: R-hat < ${THRESHOLDS.rhat} and ESS > ${THRESHOLDS.ess} (Vehtari et al. 2021); chains of at least ${THRESHOLDS.tauMultiple} tau (common practice, documented with emcee).`,
+    `ensembles z: largest |z| of an ensemble's median against the others', in MCSE units (Bonferroni-corrected two-sided test at 1%).`,
+    `chains: ${d.chainConvention}`,
+    `methods: ${CITATIONS.VEHTARI_2021}; tau: ${CITATIONS.EMCEE}, window c = 5 (${CITATIONS.SOKAL_1997}).`,
+  ];
+}
+
 export function formatDiagnosis(d: Diagnosis, ctx: { runId: string; drawsLine: string; provenance: string }): string {
   const t = diagnosisTable(d);
-  const acc = d.acceptance;
+  const notes = diagnosisNotes(d);
   const lines = [
     d.verdict.headline,
     ...d.verdict.findings.map((f) => `  - ${f}`),
@@ -35,13 +48,9 @@ export function formatDiagnosis(d: Diagnosis, ctx: { runId: string; drawsLine: s
     '',
     alignTable(t.header, t.rows),
     '',
-    `acceptance: ${num(acc.overall, 3)} overall; per ensemble ${acc.perEnsemble.map((a) => num(a, 3)).join(', ')}; ${acc.stuck.length} stuck walker(s).`,
-    `tau_max ${num(d.tauMax, 3)} steps; suggested burn-in ${Number.isFinite(d.suggestedBurnIn) ? d.suggestedBurnIn : 'NaN'} steps (${THRESHOLDS.burnInTauMultiple} tau_max), used ${d.discard}.`,
+    ...notes.slice(0, 2),
     '',
-    `thresholds: R-hat < ${THRESHOLDS.rhat} and ESS > ${THRESHOLDS.ess} (Vehtari et al. 2021); chains of at least ${THRESHOLDS.tauMultiple} tau (common practice, documented with emcee).`,
-    `ensembles z: largest |z| of an ensemble's median against the others', in MCSE units (Bonferroni-corrected two-sided test at 1%).`,
-    `chains: ${d.chainConvention}`,
-    `methods: ${CITATIONS.VEHTARI_2021}; tau: ${CITATIONS.EMCEE}, window c = 5 (${CITATIONS.SOKAL_1997}).`,
+    ...notes.slice(2),
   ];
   return lines.join('\n');
 }

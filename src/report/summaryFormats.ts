@@ -78,20 +78,19 @@ export function latexValue(p: ParameterSummary): string {
   return `$${f(p.median)}^{+${f(p.p84 - p.median)}}_{-${f(p.median - p.p16)}}$`;
 }
 
+/** What the summary table's columns mean and how its numbers are rounded. */
+export function summaryNotes(s: Summary): string[] {
+  return [
+    `median and 16/84% (the sigma columns), 2.5/97.5% percentiles; MAP = the draw with the highest log posterior (${fixedOrNaN(s.map.logPosterior)}).`,
+    `${DIGITS_RULE}.`,
+  ];
+}
+
 export function formatSummary(s: Summary, format: SummaryFormat, ctx: SummaryContext): string {
   switch (format) {
     case 'text': {
       const t = summaryTable(s);
-      return [
-        `posterior summary, run ${ctx.runId}`,
-        ctx.drawsLine,
-        `provenance: ${s.provenance}`,
-        '',
-        alignTable(t.header, t.rows),
-        '',
-        `median and 16/84% (the sigma columns), 2.5/97.5% percentiles; MAP = the draw with the highest log posterior (${fixedOrNaN(s.map.logPosterior)}).`,
-        `${DIGITS_RULE}.`,
-      ].join('\n');
+      return [`posterior summary, run ${ctx.runId}`, ctx.drawsLine, `provenance: ${s.provenance}`, '', alignTable(t.header, t.rows), '', ...summaryNotes(s)].join('\n');
     }
     case 'csv': {
       const lines = [

@@ -4,9 +4,11 @@ import { demoCommand } from './demo.js';
 import { diagnoseCommand } from './diagnose.js';
 import { gridCommand } from './grid.js';
 import { isochroneCommand } from './isochrone.js';
+import { plotCommand } from './plot.js';
+import { reportCommand } from './report.js';
 import { summaryCommand } from './summary.js';
 import { testbedCommand } from './testbed.js';
 import type { CommandSpec } from './types.js';
 
 /** Every command, in the order `coeval --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, isochroneCommand, configCommand, diagnoseCommand, summaryCommand, testbedCommand, gridCommand];
+export const COMMANDS: readonly CommandSpec[] = [demoCommand, checkCommand, isochroneCommand, configCommand, diagnoseCommand, summaryCommand, plotCommand, reportCommand, testbedCommand, gridCommand];

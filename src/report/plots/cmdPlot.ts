@@ -1,5 +1,5 @@
 import type { TopLevelSpec } from 'vega-lite';
-import { LINE_COLOURS, PLOT_CONFIG } from './theme.js';
+import { LINE_COLOURS, PLOT_CONFIG, wrapTitle } from './theme.js';
 
 /** A sequence to draw as a line in the CMD (an isochrone, or a band of them). */
 export interface CmdCurve {
@@ -10,6 +10,8 @@ export interface CmdCurve {
   segment?: ArrayLike<number>;
   /** Line opacity, for posterior bands drawn as many faint lines. */
   opacity?: number;
+  /** Line width in pixels (default 1.4). */
+  width?: number;
 }
 
 /** Stars to draw as points, optionally shaded by a value in [0, 1] such as cluster membership. */
@@ -47,12 +49,17 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
   if (o.stars) {
     const s = o.stars;
     const values = [];
+    // Stars beyond fixed axis ranges are left out, not just clipped: they would only bloat the SVG (and
+    // points far outside the canvas make resvg 2.6.2 panic when rasterising).
+    const inX = (v: number): boolean => !o.xDomain || (v >= Math.min(...o.xDomain) && v <= Math.max(...o.xDomain));
+    const inY = (v: number): boolean => !o.yDomain || (v >= Math.min(...o.yDomain) && v <= Math.max(...o.yDomain));
     for (let i = 0; i < s.mag.length; i++) {
-      if (Number.isFinite(s.mag[i]) && Number.isFinite(s.colour[i])) values.push({ x: s.colour[i], y: s.mag[i], s: s.shade ? s.shade[i] : 1 });
+      if (Number.isFinite(s.mag[i]) && Number.isFinite(s.colour[i]) && inX(s.colour[i]) && inY(s.mag[i])) values.push({ x: s.colour[i], y: s.mag[i], s: s.shade ? s.shade[i] : 1 });
     }
     layers.push({
       data: { values },
-      mark: { type: 'circle', size: values.length > 5000 ? 3 : 8, opacity: 0.6 },
+      // Smaller points the more there are (area in square pixels), so that crowded sequences keep their shape.
+      mark: { type: 'square', size: Math.min(8, Math.max(2.5, 8 * Math.sqrt(1000 / Math.max(1, values.length)))), opacity: 0.6, strokeWidth: 0 },
       encoding: {
         x,
         y,
@@ -74,26 +81,27 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
       if (!labels.includes(c.label)) labels.push(c.label);
       for (let i = 0; i < c.mag.length; i++) {
         if (Number.isFinite(c.mag[i]) && Number.isFinite(c.colour[i])) {
-          values.push({ x: c.colour[i], y: c.mag[i], i, line: `${k}:${c.segment ? c.segment[i] : 0}`, label: c.label, a: c.opacity ?? 1 });
+          values.push({ x: c.colour[i], y: c.mag[i], i, line: `${k}:${c.segment ? c.segment[i] : 0}`, label: c.label, a: c.opacity ?? 1, w: c.width ?? 1.4 });
         }
       }
     }
     layers.push({
       data: { values },
-      mark: { type: 'line', strokeWidth: 1.4, clip: true },
+      mark: { type: 'line', clip: true },
       encoding: {
         x,
         y,
         order: { field: 'i', type: 'quantitative' },
         detail: { field: 'line', type: 'nominal' },
         opacity: { field: 'a', type: 'quantitative', scale: null, legend: null },
+        strokeWidth: { field: 'w', type: 'quantitative', scale: null, legend: null },
         color: {
           field: 'label',
           type: 'nominal',
           title: null,
           scale: { domain: labels, range: LINE_COLOURS.slice(0, Math.max(1, labels.length)) },
           // One curve needs no legend: the title names it.
-          ...(labels.length === 1 ? { legend: null } : { legend: { orient: 'bottom-right', labelLimit: 260 } }),
+          ...(labels.length === 1 ? { legend: null } : { legend: { orient: 'right', labelLimit: 260 } }),
         },
       },
     });
@@ -102,7 +110,7 @@ export function cmdPlotSpec(o: CmdPlotOptions): TopLevelSpec {
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     config: PLOT_CONFIG,
-    ...(o.title ? { title: { text: o.title, ...(o.subtitle ? { subtitle: o.subtitle, subtitleFontSize: 10, subtitleColor: '#555' } : {}) } } : {}),
+    ...(o.title ? { title: { text: o.title, ...(o.subtitle ? { subtitle: wrapTitle(o.subtitle, o.width ?? 420, 10), subtitleFontSize: 10, subtitleColor: '#555' } : {}) } } : {}),
     width: o.width ?? 420,
     height: o.height ?? 520,
     layer: layers,

@@ -1,5 +1,6 @@
 import type { TopLevelSpec } from 'vega-lite';
-import { smoothedHistogram2d } from './density2d.js';
+import { contours } from 'd3-contour';
+import { hdrThreshold, smoothedHistogram2d } from './density2d.js';
 import { PLOT_CONFIG } from './theme.js';
 
 export interface CornerParameter {
@@ -9,6 +10,8 @@ export interface CornerParameter {
   draws: ArrayLike<number>;
   /** A value to mark, e.g. the truth of a simulated cluster. */
   marker?: number;
+  /** Title of the marginal panel; default `label = median +err -err` with three significant digits. */
+  title?: string;
 }
 
 const FILL_68 = '#3b5b92';
@@ -17,7 +20,8 @@ const FILL_95 = '#a9bde0';
 /**
  * A corner plot: 1-D marginals on the diagonal (histogram with the median and the 16-84% interval
  * marked), and below it each pair's joint posterior as a smoothed 2-D histogram with its 68% and 95%
- * highest-density regions filled.
+ * highest-density regions filled. The regions' edges are contours of the smoothed histogram (marching
+ * squares with linear interpolation, d3-contour), so they are smooth and the SVG stays small.
  */
 export function cornerPlotSpec(params: CornerParameter[], opts: { panel?: number; title?: string } = {}): TopLevelSpec {
   const size = opts.panel ?? 120;
@@ -66,32 +70,41 @@ function marginalPanel(p: CornerParameter, range: [number, number], size: number
   return {
     width: size,
     height: size,
-    title: { text: `${p.label} = ${fmt(q50)} +${fmt(q84 - q50)} -${fmt(q50 - q16)}`, fontSize: 10 },
+    title: { text: p.title ?? `${p.label} = ${fmt(q50)} +${fmt(q84 - q50)} -${fmt(q50 - q16)}`, fontSize: 10 },
     layer,
   };
 }
 
 function jointPanel(px: CornerParameter, py: CornerParameter, xr: [number, number], yr: [number, number], size: number, showY: boolean, showX: boolean): object {
   const g = smoothedHistogram2d(px.draws, py.draws, xr, yr, 40, 1.2);
-  const cells = [];
-  for (let iy = 0; iy < g.ny; iy++)
-    for (let ix = 0; ix < g.nx; ix++) {
-      const lv = g.level[iy * g.nx + ix];
-      if (lv > 0.95 || g.mass[iy * g.nx + ix] === 0) continue;
-      cells.push({ x0: g.x0 + ix * g.dx, x1: g.x0 + (ix + 1) * g.dx, y0: g.y0 + iy * g.dy, y1: g.y0 + (iy + 1) * g.dy, r: lv <= 0.68 ? '68%' : '95%' });
+  // The 95% region first, then the 68% one on top; a hole in a region is painted in the colour beneath it.
+  const rings: { x: number; y: number; i: number; id: number; fill: string; region: string; hole: boolean }[] = [];
+  const levels: [string, number, string, string][] = [
+    ['95%', hdrThreshold(g, 0.95), FILL_95, 'white'],
+    ['68%', hdrThreshold(g, 0.68), FILL_68, FILL_95],
+  ];
+  let ringId = 0;
+  for (const [region, threshold, fill, holeFill] of levels) {
+    for (const polygon of contours().size([g.nx, g.ny]).thresholds([threshold])(Array.from(g.mass))[0].coordinates) {
+      polygon.forEach((ring, r) => {
+        const id = ringId++;
+        // d3-contour puts cell (ix, iy) at (ix + 0.5, iy + 0.5): grid coordinate gx is x0 + gx dx.
+        ring.forEach(([gx, gy], i) => rings.push({ x: g.x0 + gx * g.dx, y: g.y0 + gy * g.dy, i, id, fill: r === 0 ? fill : holeFill, region, hole: r > 0 }));
+      });
     }
+  }
+  const scale = (domain: [number, number]) => ({ domain, nice: false, zero: false });
   const layer: object[] = [
     {
-      data: { values: cells },
-      // Cells are stroked in their own colour so that no hairline gaps show between them.
-      mark: { type: 'rect', strokeWidth: 0.6 },
+      data: { values: rings },
+      mark: { type: 'line', interpolate: 'linear-closed', strokeWidth: 0.6, clip: true },
       encoding: {
-        x: { field: 'x0', type: 'quantitative', scale: { domain: xr, nice: false, zero: false }, axis: showX ? { title: px.label, tickCount: 4 } : { labels: false, title: null, ticks: false } },
-        x2: { field: 'x1' },
-        y: { field: 'y0', type: 'quantitative', scale: { domain: yr, nice: false, zero: false }, axis: showY ? { title: py.label, tickCount: 4 } : { labels: false, title: null, ticks: false } },
-        y2: { field: 'y1' },
-        color: { field: 'r', type: 'nominal', scale: { domain: ['68%', '95%'], range: [FILL_68, FILL_95] }, title: 'credible region' },
-        stroke: { field: 'r', type: 'nominal', scale: { domain: ['68%', '95%'], range: [FILL_68, FILL_95] }, legend: null },
+        x: { field: 'x', type: 'quantitative', scale: scale(xr), axis: showX ? { title: px.label, tickCount: 4 } : { labels: false, title: null, ticks: false } },
+        y: { field: 'y', type: 'quantitative', scale: scale(yr), axis: showY ? { title: py.label, tickCount: 4 } : { labels: false, title: null, ticks: false } },
+        order: { field: 'i', type: 'quantitative' },
+        detail: { field: 'id', type: 'nominal' },
+        fill: { field: 'fill', type: 'nominal', scale: null },
+        stroke: { field: 'fill', type: 'nominal', scale: null },
       },
     },
   ];

@@ -1,10 +1,12 @@
 import type { TopLevelSpec } from 'vega-lite';
-import { PLOT_CONFIG } from './theme.js';
+import { LINE_COLOURS, PLOT_CONFIG } from './theme.js';
 
 export interface TraceParameter {
   label: string;
   /** values[w][s]: the parameter for walker w at stored step s. */
   walkers: ArrayLike<number>[];
+  /** A group per walker (e.g. its ensemble): lines are coloured by group, with a legend. */
+  groups?: number[];
 }
 
 /**
@@ -16,7 +18,8 @@ export function tracePlotSpec(params: TraceParameter[], steps: ArrayLike<number>
     const values = [];
     for (let w = 0; w < p.walkers.length; w++) {
       const series = p.walkers[w];
-      for (let s = 0; s < series.length; s++) values.push({ step: steps[s], v: series[s], w });
+      const g = p.groups ? p.groups[w] : 0;
+      for (let s = 0; s < series.length; s++) values.push({ step: steps[s], v: series[s], w, g });
     }
     const last = k === params.length - 1;
     const layer: object[] = [
@@ -25,9 +28,12 @@ export function tracePlotSpec(params: TraceParameter[], steps: ArrayLike<number>
         mark: { type: 'line', strokeWidth: 0.6, opacity: 0.7 },
         encoding: {
           x: { field: 'step', type: 'quantitative', scale: { nice: false }, axis: last ? { title: 'step' } : { labels: false, title: null } },
-          y: { field: 'v', type: 'quantitative', scale: { zero: false }, title: p.label },
+          // Flush end labels and a fixed label extent keep the panels evenly spaced and their titles aligned.
+          y: { field: 'v', type: 'quantitative', scale: { zero: false }, title: p.label, axis: { labelFlush: true, minExtent: 48, maxExtent: 48, tickCount: 4 } },
           detail: { field: 'w', type: 'nominal' },
-          color: { value: '#3b5b92' },
+          color: p.groups
+            ? { field: 'g', type: 'nominal', title: 'ensemble', scale: { range: LINE_COLOURS } }
+            : { value: '#3b5b92' },
         },
       },
     ];
@@ -36,5 +42,5 @@ export function tracePlotSpec(params: TraceParameter[], steps: ArrayLike<number>
     }
     return { width: opts.width ?? 560, height: 90, layer };
   });
-  return { $schema: 'https://vega.github.io/schema/vega-lite/v6.json', config: PLOT_CONFIG, spacing: 6, vconcat: panels } as TopLevelSpec;
+  return { $schema: 'https://vega.github.io/schema/vega-lite/v6.json', config: PLOT_CONFIG, spacing: 10, vconcat: panels } as TopLevelSpec;
 }
