@@ -63,8 +63,18 @@ export interface EarlyBoundaries {
   /** Last star on the GB, and first star in core helium burning (equal unless the GB ends at M_FGB). */
   mGBEnd: number;
   mHeI: number;
-  /** Upper bound on the last living star, ignoring winds (padded). */
-  mUpper: number;
+  /** The last living star if there were no winds (the end of the early AGB without mass loss). */
+  mEndDry: number;
+}
+
+/**
+ * Upper bound on the last living star with winds, for the range of the wind reference tracks: the dry end
+ * raised by the fraction `pad`. Winds lengthen low-mass lifetimes after the giant branch only slightly
+ * (they move the end of the early AGB up in mass by at most 4e-4 of itself at eta = 0.5, 2e-3 at eta = 1,
+ * over 10^9-10^10.15 yr and the whole Z range); the caller checks the bound and widens it when reached.
+ */
+export function upperMass(early: EarlyBoundaries, pad: number): number {
+  return Math.min(MAX_MASS, Math.max(early.mEndDry * (1 + pad), early.mHeI * 1.0001, early.mTMS * (1 + 1e-6)));
 }
 
 export function earlyBoundaries(model: EvolutionModel, tMyr: number, eta: number): EarlyBoundaries {
@@ -84,14 +94,16 @@ export function earlyBoundaries(model: EvolutionModel, tMyr: number, eta: number
     return tr.fillHelium(m).tEnd - tMyr;
   };
   const mEndDry = crossing(tEndDry, mHeI, MAX_MASS);
-  // Winds shorten low-mass lifetimes after the GB by far less than 3% (a 1% change in mass).
-  const mUpper = Math.min(MAX_MASS, Math.max(mEndDry * 1.01, mHeI * 1.0001));
-  return { mTMS, mBGB, mGBEnd, mHeI, mUpper };
+  return { mTMS, mBGB, mGBEnd, mHeI, mEndDry };
 }
 
-/** The phase intervals, with the winds' effect on the end of CHeB and of the EAGB. */
-export function phaseIntervals(model: EvolutionModel, tMyr: number, eta: number, early: EarlyBoundaries, losses: MassLossInterpolant): PhaseInterval[] {
-  const { mTMS, mBGB, mGBEnd, mHeI, mUpper } = early;
+/**
+ * The phase intervals, with the winds' effect on the end of CHeB and of the EAGB, searched up to mUpper
+ * (the range of the wind reference tracks in `losses`). If the last interval ends at mUpper, the bound was
+ * too tight (see `upperMass`).
+ */
+export function phaseIntervals(model: EvolutionModel, tMyr: number, eta: number, early: EarlyBoundaries, losses: MassLossInterpolant, mUpper: number): PhaseInterval[] {
+  const { mTMS, mBGB, mGBEnd, mHeI } = early;
   const heliumTrack = (m: number): StellarTrack => {
     const tr = scratch.setMass(model, m, eta).fillGiant();
     return tr.fillHelium(losses.massAtHeI(m, tr.gb.hasGB));

@@ -34,7 +34,7 @@ import { evolutionModel, Z_MAX_ACCEPTED, Z_RANGE } from '../evolution/model.js';
 import { tMainSequence } from '../evolution/mainSequence.js';
 import { bracketedRoot } from '../evolution/rootFind.js';
 import type { EvolutionModel } from '../evolution/types.js';
-import { earlyBoundaries, phaseIntervals, type PhaseInterval } from './boundaries.js';
+import { earlyBoundaries, phaseIntervals, upperMass, type PhaseInterval } from './boundaries.js';
 import { MassLossInterpolant } from './massLossInterpolant.js';
 import { NodeEvaluator } from './nodeEvaluator.js';
 import { NodeStore } from './nodeStore.js';
@@ -74,6 +74,9 @@ const MAX_STEP_FRACTION = 0.05;
 const MAX_STEP_FRACTION_HOOK = 0.002;
 const HOOK_REGION = 0.97;
 const PHASE_GAP = 0.999;
+/** First and largest fractional margin of the wind reference tracks above the dry end of the EAGB. */
+const UPPER_PAD = 2e-3;
+const MAX_UPPER_PAD = 0.2;
 const MAX_ROUNDS = 16;
 /**
  * Pieces per split and round, in phases whose spacing variable only roughly linearises the track (all but
@@ -126,30 +129,32 @@ function evaluateInto(i: number, m0: number, phase: Phase, b: Build): boolean {
   return !evaluator.dead;
 }
 
-/** Initial masses of n - 1 nodes splitting the segment (a, b) evenly in the phase's spacing variable. */
-function splitMass(a: number, b: number, i: number, n: number, phase: Phase): number {
-  const ma = store.m0[a];
-  const mb = store.m0[b];
-  const s = i / n;
-  if (phase === Phase.MainSequence) return ma * (mb / ma) ** s;
-  if (phase === Phase.GiantBranch || phase === Phase.EarlyAGB) {
-    const wa = store.spacing[a];
-    const wb = store.spacing[b];
-    if (wa > 0 && wb > 0 && Math.abs(wb - wa) > 1e-12 * wa) {
-      const w = wa * (wb / wa) ** s;
-      return ma + ((mb - ma) * (w - wa)) / (wb - wa);
-    }
-  }
-  return ma + (mb - ma) * s;
-}
-
-/** Insert n - 1 nodes between a and b, linked in order. */
+/**
+ * Insert n - 1 nodes between a and b, linked in order, splitting the segment evenly in the phase's spacing
+ * variable: ln M on the main sequence; on the giant branches ln w, w the time left to the core law's
+ * singularity, mapped back to mass linearly; elsewhere M.
+ */
 function insertBetween(a: number, b: number, n: number, phase: Phase, build: Build): void {
   let prev = a;
   const ma = store.m0[a];
   const mb = store.m0[b];
+  // mass(s) = ma + dm * (exp(rate * s) - 1) / span for s in (0, 1); linear when rate is 0.
+  let rate = 0;
+  let scale = mb - ma;
+  if (phase === Phase.MainSequence) {
+    rate = Math.log(mb / ma);
+    scale = ma;
+  } else if (phase === Phase.GiantBranch || phase === Phase.EarlyAGB) {
+    const wa = store.spacing[a];
+    const wb = store.spacing[b];
+    if (wa > 0 && wb > 0 && Math.abs(wb - wa) > 1e-12 * wa) {
+      rate = Math.log(wb / wa);
+      scale = ((mb - ma) * wa) / (wb - wa);
+    }
+  }
   for (let i = 1; i < n; i++) {
-    const m = splitMass(a, b, i, n, phase);
+    const u = i / n;
+    const m = rate === 0 ? ma + scale * u : ma + scale * (Math.exp(rate * u) - 1);
     if (!(m > ma && m < mb)) continue;
     const k = store.add();
     evaluateInto(k, m, phase, build);
@@ -214,6 +219,26 @@ function seedPostMS(iv: PhaseInterval, build: Build): { head: number; truncated:
   store.next[a] = b;
   insertBetween(a, b, SEED_PIECES[iv.phase], iv.phase, build);
   return { head: a, truncated };
+}
+
+/** Two segment queues (current and next round), reused between builds. */
+const queues: Int32Array[] = [new Int32Array(1024), new Int32Array(1024)];
+
+/** Queue `which`, grown (keeping its contents) to hold at least `size` entries. */
+function queueScratch(which: number, size: number): Int32Array {
+  let q = queues[which];
+  if (q.length < size) {
+    const grown = new Int32Array(Math.max(size, 2 * q.length));
+    grown.set(q);
+    queues[which] = q = grown;
+  }
+  return q;
+}
+
+function swapQueues(): void {
+  const t = queues[0];
+  queues[0] = queues[1];
+  queues[1] = t;
 }
 
 function photometryBatch(from: number, to: number, build: Build): void {
@@ -291,42 +316,56 @@ export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptio
   };
 
   const early = earlyBoundaries(model, tMyr, eta);
-  losses.build(model, eta, early.mTMS, Math.max(early.mUpper, early.mTMS * (1 + 1e-6)));
-  const intervals = phaseIntervals(model, tMyr, eta, early, losses);
+  // The wind reference tracks span the post-main-sequence stars: from the turnoff to a bound on the last
+  // living star, widened (rarely: strong winds) until the end of the early AGB falls inside it.
+  let intervals: PhaseInterval[];
+  for (let pad = UPPER_PAD; ; pad *= 8) {
+    const mUpper = upperMass(early, pad);
+    losses.build(model, eta, early.mTMS, mUpper);
+    intervals = phaseIntervals(model, tMyr, eta, early, losses, mUpper);
+    if (intervals[intervals.length - 1].mHi < mUpper * (1 - 1e-9) || pad * 8 > MAX_UPPER_PAD) break;
+  }
   evaluator.setup(model, tMyr, eta, losses, intervals);
   store.reset(bands.length);
 
   const heads: number[] = [];
-  const kept: PhaseInterval[] = [];
   for (const iv of intervals) {
     if (iv.phase === Phase.MainSequence) {
       heads.push(seedMainSequence(iv, build));
-      kept.push(iv);
       continue;
     }
     const { head, truncated } = seedPostMS(iv, build);
-    if (head >= 0) {
-      heads.push(head);
-      kept.push(iv);
-    }
+    if (head >= 0) heads.push(head);
     if (truncated) break;
   }
 
+  // Refinement rounds. Only segments made in the previous round are checked again (a segment that passed
+  // keeps its ends), in list order, so that new nodes are appended in list order.
+  let queue = queueScratch(0, store.n);
+  let nQueue = 0;
+  for (const head of heads) for (let a = head; store.next[a] !== -1; a = store.next[a]) queue[nQueue++] = a;
   let from = 0;
   for (let round = 0; round < MAX_ROUNDS; round++) {
     photometryBatch(from, store.n, build);
     from = store.n;
-    for (let h = 0; h < heads.length; h++) {
-      const phase = kept[h].phase;
-      for (let a = heads[h]; store.next[a] !== -1; ) {
-        const b = store.next[a];
-        const n = piecesNeeded(a, b, build);
-        if (n > 1) insertBetween(a, b, n, phase, build);
-        a = b;
-      }
+    let next = queueScratch(1, 0);
+    let nNext = 0;
+    for (let q = 0; q < nQueue; q++) {
+      const a = queue[q];
+      const b = store.next[a];
+      const n = piecesNeeded(a, b, build);
+      if (n === 1) continue;
+      const first = store.n;
+      insertBetween(a, b, n, store.phase[a], build);
+      next = queueScratch(1, nNext + 1 + store.n - first);
+      next[nNext++] = a;
+      for (let k = first; k < store.n; k++) next[nNext++] = k;
     }
     lastBuildStats.rounds = round + 1;
     if (store.n === from) break;
+    swapQueues();
+    queue = queueScratch(0, 0);
+    nQueue = nNext;
   }
   photometryBatch(from, store.n, build);
   lastBuildStats.nodes = store.n;

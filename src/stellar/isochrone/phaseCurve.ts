@@ -25,13 +25,18 @@ import { Phase } from '../types.js';
 import { StellarTrack } from '../evolution/track.js';
 import type { EvolutionModel } from '../evolution/types.js';
 import { bracketedRoot } from '../evolution/rootFind.js';
-import { barycentricWeights, lobattoPoints } from './chebyshev.js';
+import { lobattoPoints } from './chebyshev.js';
 import type { MassLossInterpolant } from './massLossInterpolant.js';
 
-/** Samples per piece (Lobatto), and the nested lower order used to check it. */
+/**
+ * Samples per piece (Lobatto): a piece is first sampled at 9 points and checked with the nested 5; if that
+ * fails, at the 17 points that contain the 9, and checked with those; if that fails too, it is halved.
+ */
 const K = 9;
-const K_CHECK = 5;
+const K_HIGH = 17;
 const MAX_DEPTH = 14;
+/** States remembered by initial mass, so that a halved piece does not evaluate its ends again. */
+const KNOWN = 64;
 /** Check tolerances per field: log L, log R, core mass, current mass, fraction. */
 const TOLERANCE = [3e-5, 1e-4, 3e-5, 2e-4, 3e-5];
 /** Numbers stored per piece for the map m -> v: a, b, T(a), T(b), exponent (NaN: not graded). */
@@ -45,6 +50,13 @@ export const MASS = 3;
 export const FRACTION = 4;
 export const SPACING = 5;
 export const STATE_WIDTH = 6;
+
+/** Barycentric weights of k Lobatto points up to a common factor: (-1)^j, halved at the ends. */
+function lobattoSigns(k: number): Float64Array {
+  return Float64Array.from({ length: k }, (_, j) => (j & 1 ? -1 : 1) * (j === 0 || j === k - 1 ? 0.5 : 1));
+}
+const SIGNS: Float64Array[] = [];
+for (const k of [(K + 1) / 2, K, K_HIGH]) SIGNS[k] = lobattoSigns(k);
 
 export class PhaseCurve {
   private phase: Phase = Phase.GiantBranch;
@@ -60,17 +72,25 @@ export class PhaseCurve {
   private hi: Float64Array = new Float64Array(32);
   /** Per piece: the map m -> v (see ENDS). */
   private ends: Float64Array = new Float64Array(32 * ENDS);
-  /** Per piece: the K sample points in the curve variable. */
-  private masses: Float64Array = new Float64Array(32 * K);
+  /** Per piece: its first sample (index into `points`) and its number of samples. */
+  private first = new Int32Array(32);
+  private count = new Int32Array(32);
+  /** Sample points in the curve variable, and the states there, piece after piece. */
+  private points: Float64Array = new Float64Array(32 * K);
   private samples: Float64Array = new Float64Array(32 * K * STATE_WIDTH);
+  private nPoints = 0;
   private readonly track = new StellarTrack();
   private readonly out = new Float64Array(3);
-  private readonly pts = new Float64Array(K);
-  private readonly ms = new Float64Array(K);
-  private readonly checkPts = new Float64Array(K_CHECK);
-  private readonly w = new Float64Array(K);
+  private readonly pts = new Float64Array(K_HIGH);
   private readonly probe = new Float64Array(STATE_WIDTH);
-  private readonly pending = new Float64Array(K * STATE_WIDTH);
+  private readonly pending = new Float64Array(K_HIGH * STATE_WIDTH);
+  /** Ring of recent exact states (initial mass, state, CHeB xi), see KNOWN. */
+  private readonly knownMass = new Float64Array(KNOWN);
+  private readonly knownState = new Float64Array(KNOWN * STATE_WIDTH);
+  private readonly knownXi = new Float64Array(KNOWN);
+  private nKnown = 0;
+  /** xi of the CHeB luminosity rise (section 5.3) of the last `state` call. */
+  private lastXi = Number.NaN;
   /** Exact evaluations made by the last build. */
   evaluations = 0;
 
@@ -81,20 +101,25 @@ export class PhaseCurve {
     this.losses = losses;
     this.phase = phase;
     this.nPieces = 0;
+    this.nPoints = 0;
+    this.nKnown = 0;
     this.evaluations = 0;
     this.logTime = phase === Phase.GiantBranch || phase === Phase.EarlyAGB;
     this.singular = [];
     if (phase === Phase.CoreHeliumBurning) {
       // The interval starts at tau = 0; when tau_x = 0 (low and high masses), L rises as tau^xi there.
-      this.exactState(mLo, this.probe, 0);
+      this.state(mLo, this.probe, 0);
       if (this.track.he.tauX === 0) this.singular.push(mLo);
     }
-    const loop = phase === Phase.CoreHeliumBurning ? this.loopBreaks(mLo, mHi) : [];
+    const loop = phase === Phase.CoreHeliumBurning ? this.loopBreaks(mLo, mHi) : this.logTime ? this.lawBreaks(mLo, mHi) : [];
     const all = [...breaks, ...loop].sort((x, y) => x - y);
+    // A piece that ends at a break ends just below it, so that its samples all lie on one branch of the
+    // formulae (the state can jump there: at M_FGB the CHeB time fraction does, by some 4e-5), and
+    // masses from the break on belong to the next piece.
     let a = mLo;
     for (const b of all) {
       if (b > a * (1 + 1e-12) && b < mHi * (1 - 1e-12)) {
-        this.fit(a, b, 0);
+        this.fit(a, b * (1 - Number.EPSILON), 0);
         a = b;
       }
     }
@@ -107,15 +132,61 @@ export class PhaseCurve {
     let p = 0;
     const last = this.nPieces - 1;
     while (p < last && m0 > this.hi[p]) p++;
-    const w = this.w;
-    barycentricWeights(this.variable(m0, p * ENDS), this.masses, K, w, p * K);
-    const base = p * K * STATE_WIDTH;
+    const x = this.variable(m0, p * ENDS);
+    const xs = this.points;
     const s = this.samples;
-    for (let f = 0; f < STATE_WIDTH; f++) {
-      let v = 0;
-      for (let j = 0; j < K; j++) v += w[j] * s[base + j * STATE_WIDTH + f];
-      out[f] = v;
+    const o = this.first[p];
+    const k = this.count[p];
+    const signs = SIGNS[k];
+    // Barycentric formula (second form), all fields in one pass and one division by the weights' sum.
+    let sw = 0;
+    let f0 = 0;
+    let f1 = 0;
+    let f2 = 0;
+    let f3 = 0;
+    let f4 = 0;
+    let f5 = 0;
+    for (let j = 0; j < k; j++) {
+      const d = x - xs[o + j];
+      const r = (o + j) * STATE_WIDTH;
+      if (d === 0) {
+        for (let f = 0; f < STATE_WIDTH; f++) out[f] = s[r + f];
+        return;
+      }
+      const c = signs[j] / d;
+      sw += c;
+      f0 += c * s[r];
+      f1 += c * s[r + 1];
+      f2 += c * s[r + 2];
+      f3 += c * s[r + 3];
+      f4 += c * s[r + 4];
+      f5 += c * s[r + 5];
     }
+    const inv = 1 / sw;
+    out[0] = f0 * inv;
+    out[1] = f1 * inv;
+    out[2] = f2 * inv;
+    out[3] = f3 * inv;
+    out[4] = f4 * inv;
+    out[5] = f5 * inv;
+  }
+
+  /** `exactState`, or a copy of it if m was evaluated recently in this build. */
+  private state(m: number, out: Float64Array, o: number): void {
+    const n = Math.min(this.nKnown, KNOWN);
+    for (let i = 0; i < n; i++) {
+      if (this.knownMass[i] === m) {
+        for (let f = 0; f < STATE_WIDTH; f++) out[o + f] = this.knownState[i * STATE_WIDTH + f];
+        this.lastXi = this.knownXi[i];
+        return;
+      }
+    }
+    this.exactState(m, out, o);
+    this.lastXi = this.phase === Phase.CoreHeliumBurning ? this.track.he.xi : Number.NaN;
+    const slot = this.nKnown++ % KNOWN;
+    this.knownMass[slot] = m;
+    this.knownXi[slot] = this.lastXi;
+    for (let f = 0; f < STATE_WIDTH; f++) this.knownState[slot * STATE_WIDTH + f] = out[o + f];
   }
 
   /** The exact state of initial mass m at the isochrone's age into out[o..]. */
@@ -185,16 +256,34 @@ export class PhaseCurve {
     return out;
   }
 
+  /**
+   * On the giant branches, the mass in (mLo, mHi) whose star is just at the core law's crossover L_x
+   * (eq. 37: L = min(B Mc^q, D Mc^p)) at the isochrone's age: L has a kink there, and the spacing
+   * variable switches from t_inf1 to t_inf2.
+   */
+  private lawBreaks(mLo: number, mHi: number): number[] {
+    const tr = this.track;
+    const onGB = this.phase === Phase.GiantBranch;
+    const f = (m: number): number => {
+      tr.setMass(this.model, m, this.eta).fillGiant();
+      if (onGB) return this.tMyr - tr.gb.law.tX;
+      tr.fillHelium(this.losses.massAtHeI(m, tr.gb.hasGB));
+      return this.tMyr - tr.agb.law.tX;
+    };
+    const fa = f(mLo);
+    const fb = f(mHi);
+    return fa * fb < 0 ? [bracketedRoot(f, mLo, mHi, fa, fb, 1e-12)] : [];
+  }
+
   private fit(a: number, b: number, depth: number): void {
     const pending = this.pending;
-    const ms = this.ms;
     const pts = this.pts;
     // Piece ends first: they fix the map m -> v.
-    this.exactState(a, pending, 0);
-    const xiA = this.phase === Phase.CoreHeliumBurning ? this.track.he.xi : Number.NaN;
-    this.exactState(b, pending, (K - 1) * STATE_WIDTH);
+    this.state(a, pending, 0);
+    const xiA = this.lastXi;
+    this.state(b, pending, (K - 1) * STATE_WIDTH);
     const e = this.nPieces * ENDS;
-    this.ensure(this.nPieces + 1);
+    this.ensure(this.nPieces + 1, this.nPoints + K_HIGH);
     const ends = this.ends;
     ends[e] = a;
     ends[e + 1] = b;
@@ -202,58 +291,88 @@ export class PhaseCurve {
     ends[e + 3] = pending[(K - 1) * STATE_WIDTH + SPACING];
     // Grade only where L is the singular field (xi < 1); for xi >= 1 the rise is smooth enough in m.
     ends[e + 4] = this.singular.includes(a) && xiA < 1 ? xiA : Number.NaN;
-    lobattoPoints(this.variable(a, e), this.variable(b, e), K, pts);
-    for (let j = 1; j < K - 1; j++) {
-      ms[j] = this.massOf(pts[j], e);
-      this.exactState(ms[j], pending, j * STATE_WIDTH);
-    }
+    const va = this.variable(a, e);
+    const vb = this.variable(b, e);
+    lobattoPoints(va, vb, K, pts);
+    for (let j = 1; j < K - 1; j++) this.state(this.massOf(pts[j], e), pending, j * STATE_WIDTH);
+    const refine = depth < MAX_DEPTH && b - a > 1e-11 * b;
     // The 5-point subset (every second point) must already reproduce the other 4.
-    let ok = true;
-    if (depth < MAX_DEPTH && b - a > 1e-11 * b) {
-      const w = this.w;
-      const cp = this.checkPts;
-      for (let i = 0; i < K_CHECK; i++) cp[i] = pts[2 * i];
-      for (let j = 1; j < K && ok; j += 2) {
-        barycentricWeights(pts[j], cp, K_CHECK, w);
-        for (let f = 0; f < SPACING; f++) {
-          let v = 0;
-          for (let i = 0; i < K_CHECK; i++) v += w[i] * pending[2 * i * STATE_WIDTH + f];
-          if (!(Math.abs(v - pending[j * STATE_WIDTH + f]) <= TOLERANCE[f])) {
-            ok = false;
-            break;
-          }
-        }
+    let k = K;
+    if (refine && !this.reproduces(pts, pending, K)) {
+      // Nested 17 points: the 9 known ones go to the even places, the new ones between them.
+      for (let j = K - 1; j >= 0; j--) {
+        for (let f = 0; f < STATE_WIDTH; f++) pending[2 * j * STATE_WIDTH + f] = pending[j * STATE_WIDTH + f];
       }
-    }
-    if (!ok) {
-      const mid = 0.5 * (a + b);
-      this.fit(a, mid, depth + 1);
-      this.fit(mid, b, depth + 1);
-      return;
+      lobattoPoints(va, vb, K_HIGH, pts);
+      for (let j = 1; j < K_HIGH; j += 2) this.state(this.massOf(pts[j], e), pending, j * STATE_WIDTH);
+      k = K_HIGH;
+      if (!this.reproduces(pts, pending, K_HIGH)) {
+        const mid = this.massOf(pts[(K_HIGH - 1) / 2], e);
+        this.fit(a, mid, depth + 1);
+        this.fit(mid, b, depth + 1);
+        return;
+      }
     }
     const p = this.nPieces++;
     this.hi[p] = b;
-    this.masses.set(pts, p * K);
-    this.samples.set(pending, p * K * STATE_WIDTH);
+    this.first[p] = this.nPoints;
+    this.count[p] = k;
+    this.points.set(pts.subarray(0, k), this.nPoints);
+    this.samples.set(pending.subarray(0, k * STATE_WIDTH), this.nPoints * STATE_WIDTH);
+    this.nPoints += k;
   }
 
-  private ensure(pieces: number): void {
-    if (pieces <= this.hi.length) return;
-    const n = 2 * pieces;
+  /**
+   * Whether the interpolant through the even-numbered of k Lobatto samples (themselves Lobatto points of
+   * the next lower order) reproduces the odd-numbered ones within TOLERANCE in every field.
+   */
+  private reproduces(pts: Float64Array, samples: Float64Array, k: number): boolean {
+    const kLow = (k + 1) / 2;
+    const signs = SIGNS[kLow];
+    for (let j = 1; j < k; j += 2) {
+      const x = pts[j];
+      for (let f = 0; f < SPACING; f++) {
+        let sw = 0;
+        let v = 0;
+        for (let i = 0; i < kLow; i++) {
+          const c = signs[i] / (x - pts[2 * i]);
+          sw += c;
+          v += c * samples[2 * i * STATE_WIDTH + f];
+        }
+        if (!(Math.abs(v / sw - samples[j * STATE_WIDTH + f]) <= TOLERANCE[f])) return false;
+      }
+    }
+    return true;
+  }
+
+  private ensure(pieces: number, points: number): void {
     const grow = (x: Float64Array, len: number): Float64Array => {
       const y = new Float64Array(len);
       y.set(x);
       return y;
     };
-    this.hi = grow(this.hi, n);
-    this.ends = grow(this.ends, ENDS * n);
-    this.masses = grow(this.masses, n * K);
-    this.samples = grow(this.samples, n * K * STATE_WIDTH);
+    if (pieces > this.hi.length) {
+      const n = 2 * pieces;
+      this.hi = grow(this.hi, n);
+      this.ends = grow(this.ends, ENDS * n);
+      const first = new Int32Array(n);
+      first.set(this.first);
+      this.first = first;
+      const count = new Int32Array(n);
+      count.set(this.count);
+      this.count = count;
+    }
+    if (points > this.points.length) {
+      const n = 2 * points;
+      this.points = grow(this.points, n);
+      this.samples = grow(this.samples, n * STATE_WIDTH);
+    }
   }
 
   /** Forget the last build (the phase is absent from the isochrone). */
   clear(): void {
     this.nPieces = 0;
+    this.nPoints = 0;
     this.evaluations = 0;
   }
 
