@@ -74,7 +74,11 @@ describe('coeval fit on a tiny catalogue', () => {
     const mean = (want: boolean): number => {
       let s = 0;
       let n = 0;
-      for (let i = 0; i < 150; i++) if ((comp[i] === 'f') === want) (s += pf[i]), n++;
+      for (let i = 0; i < 150; i++) {
+        if ((comp[i] === 'f') !== want) continue;
+        s += pf[i];
+        n++;
+      }
       return s / n;
     };
     expect(mean(true)).toBeGreaterThan(mean(false) + 0.5);
