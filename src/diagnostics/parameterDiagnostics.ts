@@ -88,10 +88,11 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
     };
   }
   const pool = new SortedPool(chains);
+  // One set of normalised draws alive at a time (each is as large as the draws).
   const zBulk = splitChains(pool.rankNormalized());
-  const zFolded = splitChains(pool.foldedRankNormalized());
   const rhatBulk = rhatBasic(zBulk);
-  const rhatFolded = rhatBasic(zFolded);
+  const essBulk = essBasic(zBulk);
+  const rhatFolded = rhatBasic(splitChains(pool.foldedRankNormalized()));
   const scratch = new Float64Array(n * chains.length);
   const quantiles = REPORTED_QUANTILES.map((p) => {
     const ess = essQuantileOfValid(chains, p, pool.sorted, scratch);
@@ -103,9 +104,10 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
   const variance = pooledVariance(chains);
   const perGroup = chains.length / nGroups;
   if (!Number.isInteger(perGroup)) throw new RangeError(`${chains.length} chains do not split into ${nGroups} equal groups`);
+  const groupSorted = pool.sortedGroups(nGroups);
   const groups = Array.from({ length: nGroups }, (_, g) => {
     const sub = chains.slice(g * perGroup, (g + 1) * perGroup);
-    const sorted = pool.sortedSubset(g * perGroup, (g + 1) * perGroup);
+    const sorted = groupSorted[g];
     return { median: quantileSorted(sorted, 0.5), mcse: sorted[0] === sorted[sorted.length - 1] ? NaN : mcseQuantileFromEss(sorted, 0.5, essQuantileOfValid(sub, 0.5, sorted, scratch)) };
   });
   return {
@@ -117,7 +119,7 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
     rhat: Number.isNaN(rhatBulk) || Number.isNaN(rhatFolded) ? NaN : Math.max(rhatBulk, rhatFolded),
     rhatBulk,
     rhatFolded,
-    essBulk: essBasic(zBulk),
+    essBulk,
     essTail: Number.isNaN(ess05) || Number.isNaN(ess95) ? NaN : Math.min(ess05, ess95),
     essMean: essM,
     mcseMean: Math.sqrt(variance) / Math.sqrt(essM),

@@ -54,6 +54,24 @@ export class SortedPool {
     return out;
   }
 
+  /**
+   * sortedSubset of each of `nGroups` equal consecutive groups of chains, in one pass over the order
+   * (the chain count must divide into the groups).
+   */
+  sortedGroups(nGroups: number): Float64Array[] {
+    const n = this.chains[0].length;
+    const perGroup = (this.chains.length / nGroups) * n;
+    if (!Number.isInteger(perGroup)) throw new RangeError(`${this.chains.length} chains do not split into ${nGroups} equal groups`);
+    const out = Array.from({ length: nGroups }, () => new Float64Array(perGroup));
+    const fill = new Uint32Array(nGroups);
+    const { order, sorted } = this;
+    for (let k = 0; k < order.length; k++) {
+      const g = Math.floor(order[k] / perGroup);
+      out[g][fill[g]++] = sorted[k];
+    }
+    return out;
+  }
+
   /** rankNormalize(fold(chains)), without a sort. */
   foldedRankNormalized(): Float64Array[] {
     const { sorted, order, median } = this;
