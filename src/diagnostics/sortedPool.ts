@@ -11,7 +11,6 @@
  * which stay the definitions (tests check the equality).
  */
 import type { Chains } from './chains.js';
-import { pool } from './chains.js';
 import { quantileSorted } from './quantile.js';
 import { argsortWithValues } from './radixSort.js';
 import { likeChains, normalScoresFromSorted } from './rankNormalize.js';
@@ -27,7 +26,7 @@ export class SortedPool {
   /** `chains` must hold no NaN. */
   constructor(chains: Chains) {
     this.chains = chains;
-    const { order, sorted } = argsortWithValues(pool(chains));
+    const { order, sorted } = argsortWithValues(chains);
     this.order = order;
     this.sorted = sorted;
     this.median = quantileSorted(sorted, 0.5);
