@@ -59,9 +59,9 @@ function countNonFinite(chains: Chains): number {
  * ensembles) also get their own median and its MCSE. With an odd number of draws per chain the first draw of
  * each chain is left out, so that split chains keep every draw and one sort serves the bulk and folded
  * ranks and all quantiles (SortedPool); posterior would instead drop the middle draw, a difference of one
- * draw per chain.
+ * draw per chain. `sortedOut` (e.g. shared memory) receives the sorted draws, and `sorted` is a view of it.
  */
-export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagnostics {
+export function parameterDiagnostics(input: Chains, nGroups = 1, options: { sortedOut?: Float64Array } = {}): ParameterDiagnostics {
   const n0 = drawsPerChain(input);
   const chains = n0 % 2 === 1 ? input.map((c) => c.subarray(1)) : [...input];
   const n = drawsPerChain(chains);
@@ -87,7 +87,7 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
       sorted: new Float64Array(0),
     };
   }
-  const pool = new SortedPool(chains);
+  const pool = new SortedPool(chains, options.sortedOut);
   // One set of normalised draws alive at a time (each is as large as the draws).
   const zBulk = splitChains(pool.rankNormalized());
   const rhatBulk = rhatBasic(zBulk);

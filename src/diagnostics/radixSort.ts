@@ -176,13 +176,14 @@ function sortedRecords(values: Float64Array | readonly Float64Array[]): Uint32Ar
 
 /**
  * Indices that sort `values` ascending (stable), with the sorted values. Several arrays (chains) are
- * sorted as if pooled into one, one after the other, without the pooled copy.
+ * sorted as if pooled into one, one after the other, without the pooled copy. The sorted values go into
+ * `sortedOut` when given (a view of its first values.length entries is returned).
  */
-export function argsortWithValues(values: Float64Array | readonly Float64Array[]): Sorted {
+export function argsortWithValues(values: Float64Array | readonly Float64Array[], sortedOut?: Float64Array): Sorted {
   const rec = sortedRecords(values);
   const order = new Uint32Array(rec.length / REC);
   for (let i = 0; i < order.length; i++) order[i] = rec[REC * i + 2];
-  return { order, sorted: valuesOfRecords(rec) };
+  return { order, sorted: valuesOfRecords(rec, sortedOut) };
 }
 
 /** Indices that sort `values` ascending (stable). */
@@ -196,9 +197,11 @@ export function sortedCopy(values: Float64Array): Float64Array {
 }
 
 /** The values the records' keys stand for. */
-function valuesOfRecords(rec: Uint32Array): Float64Array {
-  const out = new Float64Array(rec.length / REC);
-  const words = new Uint32Array(out.buffer);
+function valuesOfRecords(rec: Uint32Array, into?: Float64Array): Float64Array {
+  const n = rec.length / REC;
+  if (into && into.length < n) throw new RangeError(`the output holds ${into.length} values, fewer than ${n}`);
+  const out = into ? into.subarray(0, n) : new Float64Array(n);
+  const words = new Uint32Array(out.buffer, out.byteOffset, 2 * n);
   for (let i = 0; i < out.length; i++) {
     const hi = rec[REC * i];
     const lo = rec[REC * i + 1];

@@ -23,10 +23,10 @@ export class SortedPool {
   readonly median: number;
   private readonly chains: Chains;
 
-  /** `chains` must hold no NaN. */
-  constructor(chains: Chains) {
+  /** `chains` must hold no NaN. `sortedOut`, when given, receives the sorted draws (see argsortWithValues). */
+  constructor(chains: Chains, sortedOut?: Float64Array) {
     this.chains = chains;
-    const { order, sorted } = argsortWithValues(chains);
+    const { order, sorted } = argsortWithValues(chains, sortedOut);
     this.order = order;
     this.sorted = sorted;
     this.median = quantileSorted(sorted, 0.5);

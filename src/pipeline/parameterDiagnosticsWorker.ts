@@ -1,7 +1,7 @@
 /**
  * The worker side of `parameterDiagnosticsOnThreads`: one parameter's diagnostics from its column of
  * draws (shared memory, not copied), laid out as the run reader leaves it. The sorted draws are written
- * into a shared output buffer instead of being sent back, which would copy them.
+ * straight into a shared output buffer instead of being sent back, which would copy them.
  */
 import { chainsFromBuffer, dropFirst, parameterDiagnostics, type ParameterDiagnostics } from '../diagnostics/index.js';
 
@@ -28,7 +28,6 @@ export function columnChains(c: ParameterColumn): Float64Array[] {
 export type ParameterResult = Omit<ParameterDiagnostics, 'sorted'> & { sortedLength: number };
 
 export default function diagnoseParameter(task: ParameterTask): ParameterResult {
-  const { sorted, ...rest } = parameterDiagnostics(columnChains(task), task.nGroups);
-  task.sortedOut.set(sorted);
+  const { sorted, ...rest } = parameterDiagnostics(columnChains(task), task.nGroups, { sortedOut: task.sortedOut });
   return { ...rest, sortedLength: sorted.length };
 }
