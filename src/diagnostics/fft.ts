@@ -79,6 +79,18 @@ export function nextPowerOfTwo(n: number): number {
  */
 export function fftInterleaved(z: Float64Array, inverse = false): void {
   if (z.length % 2 !== 0) throw new RangeError('interleaved complex values need an even length');
+  if (inverse) {
+    // conj(DFT(conj z)): negation is exact and rounding is symmetric under it, so this is, bit for bit,
+    // the transform with the opposite sign in every twiddle.
+    for (let i = 1; i < z.length; i += 2) z[i] = -z[i];
+    forward(z);
+    for (let i = 1; i < z.length; i += 2) z[i] = -z[i];
+  } else {
+    forward(z);
+  }
+}
+
+function forward(z: Float64Array): void {
   const n = z.length >> 1;
   if (n <= 1) return;
   const { swaps, pairs, last } = plan(n);
@@ -103,8 +115,7 @@ export function fftInterleaved(z: Float64Array, inverse = false): void {
     z[a + 1] += xi;
   }
   if (n === 2) return;
-  // Stage of size 4: twiddles 1 and -i (or +i for the inverse).
-  const sg = inverse ? -1 : 1;
+  // Stage of size 4: twiddles 1 and -i.
   for (let a = 0; a < len; a += 8) {
     let xr = z[a + 4];
     let xi = z[a + 5];
@@ -112,9 +123,9 @@ export function fftInterleaved(z: Float64Array, inverse = false): void {
     z[a + 5] = z[a + 1] - xi;
     z[a] += xr;
     z[a + 1] += xi;
-    // (re + i im) * (-i sg) = sg (im - i re)
-    xr = sg * z[a + 7];
-    xi = -sg * z[a + 6];
+    // (re + i im) * (-i) = im - i re
+    xr = z[a + 7];
+    xi = -z[a + 6];
     z[a + 6] = z[a + 2] - xr;
     z[a + 7] = z[a + 3] - xi;
     z[a + 2] += xr;
@@ -122,7 +133,7 @@ export function fftInterleaved(z: Float64Array, inverse = false): void {
   }
   // Remaining stages two at a time (radix 2^2): stages of half-size h and 2h in one sweep through memory.
   // For the four points a, a+h, a+2h, a+3h: the first stage uses twiddle w1 = exp(-i pi k / h) on both
-  // pairs, the second w2 = exp(-i pi k / 2h) and w2 times -i (+i inverse).
+  // pairs, the second w2 = exp(-i pi k / 2h) and w2 times -i.
   let h = 4;
   for (; 2 * h < n; h <<= 2) {
     const tw = pairs.get(h) as Float64Array;
@@ -132,9 +143,9 @@ export function fftInterleaved(z: Float64Array, inverse = false): void {
       for (let k = 0; k < h; k++) {
         const w = 4 * k;
         const w1r = tw[w];
-        const w1i = sg * tw[w + 1];
+        const w1i = tw[w + 1];
         const w2r = tw[w + 2];
-        const w2i = sg * tw[w + 3];
+        const w2i = tw[w + 3];
         const a0 = start + 2 * k;
         const a1 = a0 + step;
         const a2 = a1 + step;
@@ -161,11 +172,9 @@ export function fftInterleaved(z: Float64Array, inverse = false): void {
         const t3i = i2 - x3i;
         const c2r = t2r * w2r - t2i * w2i;
         const c2i = t2r * w2i + t2i * w2r;
-        // t3 w2 (-i sg) = sg (Im(t3 w2) - i Re(t3 w2))
-        const u3r = t3r * w2r - t3i * w2i;
-        const u3i = t3r * w2i + t3i * w2r;
-        const c3r = sg * u3i;
-        const c3i = -sg * u3r;
+        // t3 w2 (-i) = Im(t3 w2) - i Re(t3 w2)
+        const c3r = t3r * w2i + t3i * w2r;
+        const c3i = -(t3r * w2r - t3i * w2i);
         z[a0] = t0r + c2r;
         z[a0 + 1] = t0i + c2i;
         z[a2] = t0r - c2r;
@@ -181,7 +190,7 @@ export function fftInterleaved(z: Float64Array, inverse = false): void {
   if (h < n) {
     for (let k = 0; k < h; k++) {
       const wr = last[2 * k];
-      const wi = sg * last[2 * k + 1];
+      const wi = last[2 * k + 1];
       const a = 2 * k;
       const b = a + 2 * h;
       const br = z[b];
