@@ -67,7 +67,8 @@ function prepareRun(runDirArg: string, opts: DiagnoseRunOptions, shared: boolean
   if (!(Number.isInteger(thin) && thin >= 1)) throw new UsageError(`--thin must be a whole number >= 1, got ${thin}`);
   if (opts.discard !== undefined && !(Number.isInteger(opts.discard) && opts.discard >= 0)) throw new UsageError(`--discard must be a whole number >= 0, got ${opts.discard}`);
   const names = manifest.parameters.map((p) => p.name);
-  const run = readRunChains(dir, manifest, { parameters: [...names, 'log_posterior'], thin, accepted: true, shared });
+  // Only the parameters go to worker threads.
+  const run = readRunChains(dir, manifest, { parameters: [...names, 'log_posterior'], thin, accepted: true, shared: shared ? names : false });
   const nChains = run.nEnsembles * run.nWalkers;
   if (run.nDraws < 8) {
     throw new UsageError(`the run has only ${run.nSteps} complete steps${thin > 1 ? ` (${run.nDraws} after thinning)` : ''}; diagnostics need at least 8 draws per walker`, {
