@@ -7,7 +7,7 @@
  * M - n), so we pad to the next power of two above n + maxLag and let callers ask for only the lags they
  * use. Two real series share one complex transform (x + iy), which halves the work.
  */
-import { fftInPlace, nextPowerOfTwo } from './fft.js';
+import { fftInterleaved, nextPowerOfTwo } from './fft.js';
 import { mean, sumSquaredDeviations } from './moments.js';
 
 /**
@@ -18,43 +18,48 @@ import { mean, sumSquaredDeviations } from './moments.js';
 function weightedLagSums(series: readonly Float64Array[], weights: Float64Array, maxLag: number): Float64Array {
   const n = series[0].length;
   const m = nextPowerOfTwo(n + maxLag);
-  const re = new Float64Array(m);
-  const im = new Float64Array(m);
-  const power = new Float64Array(m);
+  // Complex values interleaved (re, im): x in the real part, y in the imaginary part, zero-padded.
+  const z = new Float64Array(2 * m);
+  const power = new Float64Array(2 * m);
   const half = m >> 1;
   for (let s = 0; s < series.length; s += 2) {
     const x = series[s];
     const y = s + 1 < series.length ? series[s + 1] : undefined;
     const wx = weights[s];
     const wy = y ? weights[s + 1] : 0;
-    re.fill(0);
-    im.fill(0);
     const mx = mean(x);
-    for (let i = 0; i < n; i++) re[i] = x[i] - mx;
     if (y) {
       const my = mean(y);
-      for (let i = 0; i < n; i++) im[i] = y[i] - my;
+      for (let i = 0; i < n; i++) {
+        z[2 * i] = x[i] - mx;
+        z[2 * i + 1] = y[i] - my;
+      }
+    } else {
+      for (let i = 0; i < n; i++) {
+        z[2 * i] = x[i] - mx;
+        z[2 * i + 1] = 0;
+      }
     }
-    fftInPlace(re, im);
+    z.fill(0, 2 * n);
+    fftInterleaved(z);
     // Separate the two spectra: X_k = (Z_k + conj Z_{m-k}) / 2, Y_k = (Z_k - conj Z_{m-k}) / 2i.
-    power[0] += wx * re[0] * re[0] + wy * im[0] * im[0];
-    if (m > 1) power[half] += wx * re[half] * re[half] + wy * im[half] * im[half];
+    power[0] += wx * z[0] * z[0] + wy * z[1] * z[1];
+    if (m > 1) power[2 * half] += wx * z[2 * half] * z[2 * half] + wy * z[2 * half + 1] * z[2 * half + 1];
     for (let k = 1; k < half; k++) {
-      const ar = re[k];
-      const ai = im[k];
-      const br = re[m - k];
-      const bi = im[m - k];
+      const ar = z[2 * k];
+      const ai = z[2 * k + 1];
+      const br = z[2 * (m - k)];
+      const bi = z[2 * (m - k) + 1];
       const px = (ar + br) * (ar + br) + (ai - bi) * (ai - bi);
       const py = (ar - br) * (ar - br) + (ai + bi) * (ai + bi);
       const p = 0.25 * (wx * px + wy * py);
-      power[k] += p;
-      power[m - k] += p;
+      power[2 * k] += p;
+      power[2 * (m - k)] += p;
     }
   }
-  im.fill(0);
-  fftInPlace(power, im, true);
+  fftInterleaved(power, true);
   const out = new Float64Array(maxLag + 1);
-  for (let t = 0; t <= maxLag; t++) out[t] = power[t] / m;
+  for (let t = 0; t <= maxLag; t++) out[t] = power[2 * t] / m;
   return out;
 }
 

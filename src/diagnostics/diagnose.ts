@@ -64,9 +64,21 @@ export interface Diagnosis {
 }
 
 export function diagnose(input: DiagnoseInput): Diagnosis {
+  return diagnosisOf(
+    input,
+    input.parameters.map((_, i) => parameterDiagnostics(input.draws[i], input.nEnsembles)),
+  );
+}
+
+/**
+ * The diagnosis from each parameter's `parameterDiagnostics(input.draws[i], input.nEnsembles)` computed
+ * elsewhere (e.g. on worker threads): what `diagnose` returns, value for value.
+ */
+export function diagnosisOf(input: DiagnoseInput, perParameter: readonly ParameterDiagnostics[]): Diagnosis {
   const { nEnsembles, nWalkers, thin } = input;
+  if (perParameter.length !== input.parameters.length) throw new RangeError(`${perParameter.length} parameter diagnostics for ${input.parameters.length} parameters`);
   const parameters: ParameterDiagnosis[] = input.parameters.map((info, i) => {
-    const p = parameterDiagnostics(input.draws[i], nEnsembles);
+    const p = perParameter[i];
     const agreement = ensembleAgreement(
       p.groups.map((g) => g.median),
       p.groups.map((g) => g.mcse),

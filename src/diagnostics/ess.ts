@@ -114,11 +114,14 @@ export function essQuantileOfValid(chains: Chains, p: number, sorted: Float64Arr
   let ones = 0;
   const indicators = chains.map((c, k) => {
     const out = buf.subarray(k * n, (k + 1) * n);
+    // A local count: a captured variable updated in the loop would be a memory write per draw.
+    let count = 0;
     for (let i = 0; i < n; i++) {
       const v = c[i] <= q ? 1 : 0;
       out[i] = v;
-      ones += v;
+      count += v;
     }
+    ones += count;
     return out;
   });
   const split = splitChains(indicators);

@@ -16,6 +16,6 @@ export { parameterDiagnostics, REPORTED_QUANTILES, type ParameterDiagnostics, ty
 export { mcseMean, mcseQuantile, mcseQuantiles, mcseQuantileFromEss } from './mcse.js';
 export { acceptance, type Acceptance, type StuckWalker } from './acceptance.js';
 export { ensembleAgreement, AGREEMENT_ALPHA, type EnsembleAgreement } from './ensembleAgreement.js';
-export { diagnose, CHAIN_CONVENTION, type DiagnoseInput, type Diagnosis, type ParameterDiagnosis } from './diagnose.js';
+export { diagnose, diagnosisOf, CHAIN_CONVENTION, type DiagnoseInput, type Diagnosis, type ParameterDiagnosis } from './diagnose.js';
 export { verdict, type Verdict, type VerdictStatus } from './verdict.js';
 export { tauOfRows } from './tauEstimator.js';

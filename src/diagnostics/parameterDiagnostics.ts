@@ -59,9 +59,9 @@ function countNonFinite(chains: Chains): number {
  * ensembles) also get their own median and its MCSE. With an odd number of draws per chain the first draw of
  * each chain is left out, so that split chains keep every draw and one sort serves the bulk and folded
  * ranks and all quantiles (SortedPool); posterior would instead drop the middle draw, a difference of one
- * draw per chain.
+ * draw per chain. `sortedOut` (e.g. shared memory) receives the sorted draws, and `sorted` is a view of it.
  */
-export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagnostics {
+export function parameterDiagnostics(input: Chains, nGroups = 1, options: { sortedOut?: Float64Array } = {}): ParameterDiagnostics {
   const n0 = drawsPerChain(input);
   const chains = n0 % 2 === 1 ? input.map((c) => c.subarray(1)) : [...input];
   const n = drawsPerChain(chains);
@@ -87,11 +87,12 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
       sorted: new Float64Array(0),
     };
   }
-  const pool = new SortedPool(chains);
+  const pool = new SortedPool(chains, options.sortedOut);
+  // One set of normalised draws alive at a time (each is as large as the draws).
   const zBulk = splitChains(pool.rankNormalized());
-  const zFolded = splitChains(pool.foldedRankNormalized());
   const rhatBulk = rhatBasic(zBulk);
-  const rhatFolded = rhatBasic(zFolded);
+  const essBulk = essBasic(zBulk);
+  const rhatFolded = rhatBasic(splitChains(pool.foldedRankNormalized()));
   const scratch = new Float64Array(n * chains.length);
   const quantiles = REPORTED_QUANTILES.map((p) => {
     const ess = essQuantileOfValid(chains, p, pool.sorted, scratch);
@@ -103,9 +104,10 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
   const variance = pooledVariance(chains);
   const perGroup = chains.length / nGroups;
   if (!Number.isInteger(perGroup)) throw new RangeError(`${chains.length} chains do not split into ${nGroups} equal groups`);
+  const groupSorted = pool.sortedGroups(nGroups);
   const groups = Array.from({ length: nGroups }, (_, g) => {
     const sub = chains.slice(g * perGroup, (g + 1) * perGroup);
-    const sorted = pool.sortedSubset(g * perGroup, (g + 1) * perGroup);
+    const sorted = groupSorted[g];
     return { median: quantileSorted(sorted, 0.5), mcse: sorted[0] === sorted[sorted.length - 1] ? NaN : mcseQuantileFromEss(sorted, 0.5, essQuantileOfValid(sub, 0.5, sorted, scratch)) };
   });
   return {
@@ -117,7 +119,7 @@ export function parameterDiagnostics(input: Chains, nGroups = 1): ParameterDiagn
     rhat: Number.isNaN(rhatBulk) || Number.isNaN(rhatFolded) ? NaN : Math.max(rhatBulk, rhatFolded),
     rhatBulk,
     rhatFolded,
-    essBulk: essBasic(zBulk),
+    essBulk,
     essTail: Number.isNaN(ess05) || Number.isNaN(ess95) ? NaN : Math.min(ess05, ess95),
     essMean: essM,
     mcseMean: Math.sqrt(variance) / Math.sqrt(essM),

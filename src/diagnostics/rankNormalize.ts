@@ -19,15 +19,39 @@ const BLOM_OFFSET = 3 / 8;
 export function normalScoresFromSorted(order: Uint32Array, sorted: Float64Array, out: Float64Array): void {
   const s = sorted.length;
   const denom = s - 2 * BLOM_OFFSET + 1;
+  const untied = untiedScores(s);
   let i = 0;
   while (i < s) {
     const v = sorted[i];
-    let j = i;
+    if (i + 1 === s || sorted[i + 1] !== v) {
+      out[order[i]] = untied[i];
+      i++;
+      continue;
+    }
+    let j = i + 1;
     while (j + 1 < s && sorted[j + 1] === v) j++;
     const z = normalQuantile(((i + j) / 2 + 1 - BLOM_OFFSET) / denom);
     for (let k = i; k <= j; k++) out[order[k]] = z;
     i = j + 1;
   }
+}
+
+/**
+ * The normal scores of untied ranks 1..S (the score of rank k + 1 at k), computed exactly as
+ * normalScoresFromSorted computes them for i = j = k. Every parameter's bulk and folded scores of one run
+ * share S, so the ~S quantile evaluations (most of the cost of rank normalisation) are done once, not
+ * twice per parameter. Held weakly: the table goes when the diagnosis no longer needs it.
+ */
+let untiedCache: WeakRef<Float64Array> | undefined;
+
+function untiedScores(s: number): Float64Array {
+  const hit = untiedCache?.deref();
+  if (hit && hit.length === s) return hit;
+  const denom = s - 2 * BLOM_OFFSET + 1;
+  const table = new Float64Array(s);
+  for (let k = 0; k < s; k++) table[k] = normalQuantile((k + 1 - BLOM_OFFSET) / denom);
+  untiedCache = new WeakRef(table);
+  return table;
 }
 
 /** Average ranks (1-based) of `values` among themselves, ties sharing their mean rank. No NaN allowed. */

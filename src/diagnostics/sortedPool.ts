@@ -11,7 +11,6 @@
  * which stay the definitions (tests check the equality).
  */
 import type { Chains } from './chains.js';
-import { pool } from './chains.js';
 import { quantileSorted } from './quantile.js';
 import { argsortWithValues } from './radixSort.js';
 import { likeChains, normalScoresFromSorted } from './rankNormalize.js';
@@ -24,10 +23,10 @@ export class SortedPool {
   readonly median: number;
   private readonly chains: Chains;
 
-  /** `chains` must hold no NaN. */
-  constructor(chains: Chains) {
+  /** `chains` must hold no NaN. `sortedOut`, when given, receives the sorted draws (see argsortWithValues). */
+  constructor(chains: Chains, sortedOut?: Float64Array) {
     this.chains = chains;
-    const { order, sorted } = argsortWithValues(pool(chains));
+    const { order, sorted } = argsortWithValues(chains, sortedOut);
     this.order = order;
     this.sorted = sorted;
     this.median = quantileSorted(sorted, 0.5);
@@ -50,6 +49,24 @@ export class SortedPool {
     for (let k = 0; k < this.order.length; k++) {
       const i = this.order[k];
       if (i >= lo && i < hi) out[j++] = this.sorted[k];
+    }
+    return out;
+  }
+
+  /**
+   * sortedSubset of each of `nGroups` equal consecutive groups of chains, in one pass over the order
+   * (the chain count must divide into the groups).
+   */
+  sortedGroups(nGroups: number): Float64Array[] {
+    const n = this.chains[0].length;
+    const perGroup = (this.chains.length / nGroups) * n;
+    if (!Number.isInteger(perGroup)) throw new RangeError(`${this.chains.length} chains do not split into ${nGroups} equal groups`);
+    const out = Array.from({ length: nGroups }, () => new Float64Array(perGroup));
+    const fill = new Uint32Array(nGroups);
+    const { order, sorted } = this;
+    for (let k = 0; k < order.length; k++) {
+      const g = Math.floor(order[k] / perGroup);
+      out[g][fill[g]++] = sorted[k];
     }
     return out;
   }

@@ -120,8 +120,12 @@ export interface RunDraws {
   files: { path: string; nSteps: number; closed: boolean; tornBytes: number }[];
 }
 
-/** Read the chains of every ensemble of a run, lined up to the steps all ensembles have. */
-export function readRunChains(runDir: string, manifest: RunManifest, opts: ChainOptions = {}): RunDraws {
+/**
+ * Read the chains of every ensemble of a run, lined up to the steps all ensembles have. With `shared`, the
+ * value columns (all, or those named) live in SharedArrayBuffers, so that worker threads can read them
+ * without a copy.
+ */
+export function readRunChains(runDir: string, manifest: RunManifest, opts: ChainOptions & { shared?: boolean | readonly string[] } = {}): RunDraws {
   const files = manifest.chainFiles.map((f) => ChainFile.open(join(runDir, f)));
   try {
     for (const f of files) {
@@ -140,7 +144,8 @@ export function readRunChains(runDir: string, manifest: RunManifest, opts: Chain
     const columns = [...(opts.parameters ?? manifest.parameters.map((p) => p.name))];
     const size = files.length * nw * nDraws;
     const values: Record<string, Float64Array> = {};
-    for (const c of columns) values[c] = new Float64Array(size);
+    const shared = (c: string): boolean => (Array.isArray(opts.shared) ? opts.shared.includes(c) : opts.shared === true);
+    for (const c of columns) values[c] = shared(c) ? new Float64Array(new SharedArrayBuffer(size * Float64Array.BYTES_PER_ELEMENT)) : new Float64Array(size);
     const accepted = opts.accepted ? new Uint8Array(size) : undefined;
     let steps: Int32Array = new Int32Array(0);
     files.forEach((f, k) => {

@@ -4,9 +4,10 @@
  * crashed (only complete batches are read, and the ensembles are lined up to the steps they all have).
  */
 import { UsageError } from '../core/errors.js';
-import { autocorrTime, chainsFromBuffer, diagnose, dropFirst, THRESHOLDS, type Chains, type Diagnosis } from '../diagnostics/index.js';
-import { openRunDirectory, readRunChains, type RunManifest } from '../io/index.js';
+import { autocorrTime, chainsFromBuffer, diagnose, diagnosisOf, dropFirst, THRESHOLDS, type Chains, type DiagnoseInput, type Diagnosis } from '../diagnostics/index.js';
+import { openRunDirectory, readRunChains, type RunDraws, type RunManifest } from '../io/index.js';
 import { summarize, type Summary } from '../report/summary.js';
+import { parameterDiagnosticsOnThreads } from './parameterDiagnosticsThreads.js';
 
 export interface DiagnoseRunOptions {
   /** Stored steps to drop as burn-in; default: suggested from tau (see below). */
@@ -48,13 +49,26 @@ function suggestDiscard(draws: readonly Chains[], thin: number): number {
   return Math.min(Math.ceil(THRESHOLDS.burnInTauMultiple * Math.max(...taus)), Math.floor((n * thin) / 2));
 }
 
-export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): RunDiagnosis {
+/** A run read and cut to its kept draws, ready to be diagnosed. */
+interface PreparedRun {
+  dir: string;
+  manifest: RunManifest;
+  run: RunDraws;
+  input: DiagnoseInput;
+  discardDraws: number;
+  discardSource: 'given' | 'suggested';
+  spacing: number;
+  totalSteps: number;
+}
+
+function prepareRun(runDirArg: string, opts: DiagnoseRunOptions, shared: boolean): PreparedRun {
   const { dir, manifest } = openRunDirectory(runDirArg);
   const thin = opts.thin ?? 1;
   if (!(Number.isInteger(thin) && thin >= 1)) throw new UsageError(`--thin must be a whole number >= 1, got ${thin}`);
   if (opts.discard !== undefined && !(Number.isInteger(opts.discard) && opts.discard >= 0)) throw new UsageError(`--discard must be a whole number >= 0, got ${opts.discard}`);
   const names = manifest.parameters.map((p) => p.name);
-  const run = readRunChains(dir, manifest, { parameters: [...names, 'log_posterior'], thin, accepted: true });
+  // Only the parameters go to worker threads.
+  const run = readRunChains(dir, manifest, { parameters: [...names, 'log_posterior'], thin, accepted: true, shared: shared ? names : false });
   const nChains = run.nEnsembles * run.nWalkers;
   if (run.nDraws < 8) {
     throw new UsageError(`the run has only ${run.nSteps} complete steps${thin > 1 ? ` (${run.nDraws} after thinning)` : ''}; diagnostics need at least 8 draws per walker`, {
@@ -74,7 +88,6 @@ export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): R
     throw new UsageError(`a burn-in of ${discard} steps leaves fewer than 8 draws per walker (the run has ${totalSteps} steps)`, { hint: 'give a smaller --discard' });
   }
   const draws = all.map((chains) => dropFirst(chains, discardDraws));
-  const logPosterior = dropFirst(chainsFromBuffer(run.values.log_posterior, run.nDraws, nChains), discardDraws);
   const accepted = new Uint32Array(nChains);
   const acc = run.accepted as Uint8Array;
   for (let c = 0; c < nChains; c++) {
@@ -82,7 +95,7 @@ export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): R
     for (let d = discardDraws; d < run.nDraws; d++) a += acc[c * run.nDraws + d];
     accepted[c] = a;
   }
-  const diagnosis = diagnose({
+  const input: DiagnoseInput = {
     parameters: manifest.parameters,
     draws,
     nEnsembles: run.nEnsembles,
@@ -93,11 +106,41 @@ export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): R
     discard: discardDraws * spacing,
     thin: spacing,
     discardSuggested: discardSource === 'suggested',
-  });
+  };
+  return { dir, manifest, run, input, discardDraws, discardSource, spacing, totalSteps };
+}
+
+function finishRun(p: PreparedRun, diagnosis: Diagnosis): RunDiagnosis {
+  const { dir, manifest, run, discardDraws, discardSource, spacing, totalSteps } = p;
+  const nChains = run.nEnsembles * run.nWalkers;
+  const logPosterior = dropFirst(chainsFromBuffer(run.values.log_posterior, run.nDraws, nChains), discardDraws);
   const provenance = provenanceLine(manifest);
-  const summary = summarize(diagnosis, draws, logPosterior, provenance);
+  const summary = summarize(diagnosis, p.input.draws, logPosterior, provenance);
   const keptDraws = (run.nDraws - discardDraws) * nChains;
   const running = run.files.filter((f) => !f.closed).length;
   const drawsLine = `${run.nEnsembles} ensemble(s) x ${run.nWalkers} walkers, ${totalSteps.toLocaleString('en-US')} steps, burn-in ${(discardDraws * spacing).toLocaleString('en-US')} (${discardSource}${spacing > 1 ? `, a draw every ${spacing} steps` : ''}), ${keptDraws.toLocaleString('en-US')} draws${running ? `; ${running} chain file(s) still open (running or stopped)` : ''}`;
   return { runDir: dir, manifest, diagnosis, summary, discardSource, drawsLine, provenance, files: run.files };
+}
+
+/** Diagnose and summarise a run directory, in this thread. */
+export function diagnoseRun(runDirArg: string, opts: DiagnoseRunOptions = {}): RunDiagnosis {
+  const p = prepareRun(runDirArg, opts, false);
+  return finishRun(p, diagnose(p.input));
+}
+
+export interface DiagnoseRunAsyncOptions extends DiagnoseRunOptions {
+  /** Worker threads for the parameters (default: the available parallelism); 1 diagnoses in this thread. */
+  threads?: number;
+}
+
+/**
+ * `diagnoseRun` with the parameters diagnosed on worker threads: the same result, value for value, in
+ * about half the time on two cores.
+ */
+export async function diagnoseRunAsync(runDirArg: string, opts: DiagnoseRunAsyncOptions = {}): Promise<RunDiagnosis> {
+  const p = prepareRun(runDirArg, opts, true);
+  const nChains = p.run.nEnsembles * p.run.nWalkers;
+  const columns = p.manifest.parameters.map((info) => ({ values: p.run.values[info.name], nDraws: p.run.nDraws, nChains, discardDraws: p.discardDraws }));
+  const per = await parameterDiagnosticsOnThreads(columns, p.run.nEnsembles, opts.threads);
+  return finishRun(p, diagnosisOf(p.input, per));
 }

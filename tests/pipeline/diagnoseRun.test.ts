@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
-import { diagnoseRun } from '../../src/pipeline/diagnoseRun.js';
+import { diagnoseRun, diagnoseRunAsync } from '../../src/pipeline/diagnoseRun.js';
 import { formatSummary } from '../../src/report/summaryFormats.js';
 import { writeAr1Run, type Ar1RunOptions } from '../../scripts/ar1Run.js';
 
@@ -41,6 +41,15 @@ function coeval(...args: string[]): { status: number | null; stdout: string; std
 }
 
 describe('diagnoseRun', () => {
+  it('gives the same diagnosis and summary, value for value, on worker threads as in the main thread', async () => {
+    // The faulty run has a stuck walker and an ensemble in another mode: every path of the statistics.
+    const sync = diagnoseRun(faulty);
+    const r = await diagnoseRunAsync(faulty, { threads: 2 });
+    // toEqual compares every number exactly (NaN equals NaN), the sorted draws included.
+    expect(r.diagnosis).toEqual(sync.diagnosis);
+    expect(r.summary).toEqual(sync.summary);
+  });
+
   it('calls a healthy run converged, and its medians sit on the target within their MCSE', () => {
     const r = diagnoseRun(healthy);
     expect(r.diagnosis.verdict.status, r.diagnosis.verdict.findings.join('\n')).toBe('converged');

@@ -9,10 +9,10 @@ export const diagnoseCommand: CommandSpec = {
       .option('discard', { type: 'number', describe: 'steps to drop as burn-in (default: 2 tau_max, estimated from the second half of the chains)' })
       .option('thin', { type: 'number', default: 1, describe: 'keep every n-th step' }),
   async run(args, ctx) {
-    const { diagnoseRun } = await import('../../pipeline/diagnoseRun.js');
+    const { diagnoseRunAsync } = await import('../../pipeline/diagnoseRun.js');
     const { formatDiagnosis, diagnosisJson } = await import('../../report/diagnosisText.js');
     const { formatSummary } = await import('../../report/summaryFormats.js');
-    const r = diagnoseRun(String(args.run_dir), { discard: args.discard as number | undefined, thin: args.thin as number });
+    const r = await diagnoseRunAsync(String(args.run_dir), { discard: args.discard as number | undefined, thin: args.thin as number });
     const info = { runId: r.manifest.runId, drawsLine: r.drawsLine, provenance: r.provenance };
     if (ctx.args.json) {
       ctx.out.result(JSON.stringify({ diagnosis: diagnosisJson(r.diagnosis, info), summary: JSON.parse(formatSummary(r.summary, 'json', info)) }, null, 2));

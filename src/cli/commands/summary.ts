@@ -10,9 +10,9 @@ export const summaryCommand: CommandSpec = {
       .option('discard', { type: 'number', describe: 'steps to drop as burn-in (default: 2 tau_max, estimated from the second half of the chains)' })
       .option('thin', { type: 'number', default: 1, describe: 'keep every n-th step' }),
   async run(args, ctx) {
-    const { diagnoseRun } = await import('../../pipeline/diagnoseRun.js');
+    const { diagnoseRunAsync } = await import('../../pipeline/diagnoseRun.js');
     const { formatSummary } = await import('../../report/summaryFormats.js');
-    const r = diagnoseRun(String(args.run_dir), { discard: args.discard as number | undefined, thin: args.thin as number });
+    const r = await diagnoseRunAsync(String(args.run_dir), { discard: args.discard as number | undefined, thin: args.thin as number });
     const format = ctx.args.json ? 'json' : (args.format as 'text' | 'csv' | 'json' | 'latex');
     ctx.out.result(formatSummary(r.summary, format, { runId: r.manifest.runId, drawsLine: r.drawsLine }));
     if (r.diagnosis.verdict.status !== 'converged') ctx.out.warn(`${r.diagnosis.verdict.headline} (coeval diagnose ${String(args.run_dir)} says more)`);
