@@ -5,3 +5,4 @@ export { catalogRequests } from './catalogRequests.js';
 export { detectFormat } from './detectFormat.js';
 export { readCatalog, readConfiguredCatalog, type CatalogSpec } from './readCatalog.js';
 export { readTable } from './readTable.js';
+export { outputFormatFor, writeOutputTable, type OutputColumn, type OutputFormat, type OutputTable } from './outputTable.js';

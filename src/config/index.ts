@@ -1,5 +1,6 @@
 export { configSchema, type CoevalConfig } from './schema.js';
-export { loadConfig, loadGridMap, parseConfigText, resolveConfigPath, runDirectory, type LoadedConfig, type LoadOptions } from './load.js';
+export { loadConfig, loadGridMap, loadSimulationConfig, parseConfigText, parseSimulationConfigText, resolveConfigPath, runDirectory, type LoadedConfig, type LoadedSimulationConfig, type LoadOptions } from './load.js';
+export { simulateSection, simulationConfigSchema, SIMULATION_FORMATS, type SimulateConfig, type SimulationConfig } from './sections/simulate.js';
 export { configuredBands, type BandColumns, type PhotometryConfig } from './sections/photometry.js';
 export { CATALOGUE_FORMATS, type CatalogueConfig, type CutConfig } from './sections/catalogue.js';
 export type { OutputConfig } from './sections/output.js';

@@ -9,6 +9,7 @@ import { applyOverrides } from './overrides.js';
 import { configSchema, type CoevalConfig } from './schema.js';
 import { keysAt } from './schemaShape.js';
 import { gridSection, type GridConfig } from './sections/grid.js';
+import { simulationConfigSchema, type SimulationConfig } from './sections/simulate.js';
 
 /** A validated config, with where it came from, so relative paths can be resolved. */
 export interface LoadedConfig {
@@ -73,6 +74,41 @@ export function loadGridMap(file: string): { grid: GridConfig; baseDir: string }
   return { grid, baseDir: dirname(resolve(file)) };
 }
 
+/** A simulation config as read from a file or text: `[simulate]`, `[likelihood]`, `[model]`. */
+export interface LoadedSimulationConfig {
+  config: SimulationConfig;
+  file?: string;
+  baseDir: string;
+  overrides: string[];
+}
+
+/**
+ * Read a simulation config (`coeval simulate`): defaults, the file (when given), then `--set` overrides,
+ * validated with located errors as fit configs are. Without a file, `text` may be empty and the overrides
+ * supply everything.
+ */
+export function parseSimulationConfigText(text: string, opts: { file?: string; baseDir?: string; sets?: readonly string[] } = {}): LoadedSimulationConfig {
+  const file = opts.file;
+  let raw: Record<string, unknown>;
+  try {
+    raw = parseToml(text.replace(/^\uFEFF/, '')) as Record<string, unknown>;
+  } catch (err) {
+    if (err instanceof TomlError) {
+      throw new ConfigError(`the simulation config is not valid TOML: ${err.message.split('\n')[0]}`, { where: { file, line: err.line, column: err.column } });
+    }
+    throw err;
+  }
+  const sets = [...(opts.sets ?? [])];
+  applyOverrides(raw, sets);
+  const config = validate(raw, text, file, simulationConfigSchema);
+  const baseDir = opts.baseDir ?? (file ? dirname(resolve(file)) : process.cwd());
+  return { config, file, baseDir, overrides: sets };
+}
+
+export function loadSimulationConfig(file: string, options: LoadOptions = {}): LoadedSimulationConfig {
+  return parseSimulationConfigText(readTextFile(file, 'simulation config file'), { file, sets: options.sets });
+}
+
 /** Resolve a path written in the config against the config file's folder. */
 export function resolveConfigPath(loaded: LoadedConfig, p: string): string {
   return resolve(loaded.baseDir, p);
@@ -89,7 +125,7 @@ export function runDirectory(loaded: LoadedConfig): string {
 function validate<T = CoevalConfig>(raw: Record<string, unknown>, text: string, file: string | undefined, schema: z.ZodType<T> = configSchema as unknown as z.ZodType<T>): T {
   const result = schema.safeParse(raw, { reportInput: true });
   if (result.success) return result.data;
-  const problems = result.error.issues.map((issue) => describeIssue(issue, raw));
+  const problems = result.error.issues.map((issue) => describeIssue(issue, raw, schema));
   const first = problems[0];
   const loc = locateKey(text, first.path);
   const more = problems.slice(1).map((p) => `\n  also: key ${p.key || '(top level)'}: ${p.message}`).join('');
@@ -110,13 +146,13 @@ interface Problem {
   hint?: string;
 }
 
-function describeIssue(issue: z.core.$ZodIssue, raw: unknown): Problem {
+function describeIssue(issue: z.core.$ZodIssue, raw: unknown, schema: z.ZodType): Problem {
   const path = issue.path.map((p) => (typeof p === 'number' ? p : String(p)));
   const key = path.join('.');
   const found = 'input' in issue ? issue.input : valueAt(raw, path);
   switch (issue.code) {
     case 'unrecognized_keys': {
-      const valid = keysAt(configSchema, issue.path);
+      const valid = keysAt(schema, issue.path);
       const unknown = issue.keys[0];
       const keyPath = [...path, unknown];
       return {

@@ -25,8 +25,8 @@ function setup(): string {
 function fitConfig(dir: string, extra: string, bands = ['B', 'V']): string {
   // The demo catalogue has B, V and I columns; a G band borrows the I columns (only the grid check matters here).
   const col = (b: string): string => (b === 'G' ? 'I' : b);
-  const phot = bands.map((b) => `[photometry.${b}]\nmag = "${col(b)}mag"\nerr = "e_${col(b)}mag"\n`).join('');
-  const text = `[catalogue]\npath = "stars.csv"\nid = "star"\n${phot}${extra}`;
+  const phot = bands.map((b) => `[photometry.${b}]\nmag = "${col(b)}"\nerr = "${col(b)}_err"\n`).join('');
+  const text = `[catalogue]\npath = "stars.csv"\nid = "id"\n${phot}${extra}`;
   const file = join(dir, 'fit.toml');
   writeFileSync(file, text);
   return file;

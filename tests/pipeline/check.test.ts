@@ -32,10 +32,10 @@ describeWithReference('the check summary agrees with astropy and numpy on the de
     const script = `
 import json, numpy as np
 from astropy.table import Table
-t = Table.read(${JSON.stringify(resolve(REPO_ROOT, 'demo-data/tessaly7.csv'))}, format='ascii.csv')
+t = Table.read(${JSON.stringify(resolve(REPO_ROOT, 'demo-data/tessaly7.csv'))}, format='ascii.csv', comment='#')
 out = {'n': len(t)}
 for b in 'BVI':
-    m = np.ma.filled(t[b + 'mag'].astype(float), np.nan); e = np.ma.filled(t['e_' + b + 'mag'].astype(float), np.nan)
+    m = np.ma.filled(t[b].astype(float), np.nan); e = np.ma.filled(t[b + '_err'].astype(float), np.nan)
     ok = np.isfinite(m) & np.isfinite(e)
     out[b] = {'min': float(m[ok].min()), 'max': float(m[ok].max()), 'missing': int((~ok).sum()),
               'p': [float(v) for v in np.percentile(e[ok], [5, 50, 95])]}
@@ -66,14 +66,19 @@ describe('coeval check and coeval demo through the CLI', () => {
     expect(report.model).toMatch(/^none/);
   });
 
-  it('demo says plainly what it does and prints the check summary', () => {
-    const r = runCli(['demo']);
-    expect(r.status, r.stderr).toBe(0);
-    expect(r.stderr).toMatch(/The fit is not built yet/);
-    expect(r.stderr).toMatch(/synthetic, non-physical/);
-    expect(r.stdout).toMatch(/catalogue\s+demo-data\/tessaly7\.csv/);
-    expect(r.stdout).toMatch(/error p5 \/ p50 \/ p95/);
-    expect(r.stdout).toMatch(/stellar model: none/);
+  it('the demo config and its two prior variants pass the check and differ only in their priors', () => {
+    for (const name of ['demo', 'demo-flat-age', 'demo-feh-spectroscopy']) {
+      const r = runCli(['check', resolve(REPO_ROOT, `configs/${name}.toml`)]);
+      expect(r.status, r.stderr).toBe(0);
+      expect(r.stdout).toMatch(/catalogue\s+demo-data\/tessaly7\.csv/);
+    }
+    const base = loadConfig(DEMO).config;
+    const flat = loadConfig(resolve(REPO_ROOT, 'configs/demo-flat-age.toml')).config;
+    const feh = loadConfig(resolve(REPO_ROOT, 'configs/demo-feh-spectroscopy.toml')).config;
+    expect(flat.priors?.age_gyr).toEqual({ kind: 'uniform', min: 1, max: 14.1 });
+    expect(feh.priors?.feh).toEqual({ kind: 'truncated_normal', mean: -1.55, sd: 0.1, min: -2.3, max: 0.2 });
+    expect({ ...flat, priors: { ...flat.priors, age_gyr: undefined, log_age: base.priors?.log_age } }).toEqual(base);
+    expect({ ...feh, priors: { ...feh.priors, feh: base.priors?.feh } }).toEqual(base);
   });
 
   it('--quiet silences the messages but not the result', () => {

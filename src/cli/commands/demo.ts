@@ -6,20 +6,38 @@ const repoRoot = resolve(fileURLToPath(import.meta.url), '../../../../..');
 
 export const demoCommand: CommandSpec = {
   command: 'demo',
-  describe: 'run coeval on the invented demo cluster (what exists of the pipeline so far: the catalogue check)',
-  builder: (y) => y,
-  async run(_args, ctx) {
-    const { loadConfig } = await import('../../config/index.js');
-    const { checkConfig, formatCheckReport } = await import('../../pipeline/index.js');
+  describe: 'fit the invented demo cluster Tessaly 7 (configs/demo.toml) and write its run directory and report',
+  builder: (y) =>
+    y
+      .option('out', { type: 'string', default: 'runs/demo', describe: 'the run directory (replaced if it exists)' })
+      .option('workers', { type: 'string', describe: 'worker threads: a number or auto (default auto: one per core)' }),
+  async run(args, ctx) {
+    const { mkdirSync } = await import('node:fs');
+    const { dirname } = await import('node:path');
+    const { fit } = await import('../../pipeline/fit.js');
+    const { formatFitResult } = await import('../../pipeline/fitText.js');
+    const { progressReporter } = await import('../../sampler/index.js');
+    const { UsageError } = await import('../../core/errors.js');
     const file = resolve(repoRoot, 'configs/demo.toml');
-    ctx.out.info(`coeval demo: the invented globular cluster "Tessaly 7" (config ${file}).`);
-    ctx.out.info(
-      'The fit is not built yet. What this demo does today: read the config and the demo catalogue, and print the\n' +
-        'summary of `coeval check`. The catalogue is a synthetic, non-physical stand-in (see demo-data/README.md).\n',
-    );
-    const loaded = loadConfig(file, { sets: ctx.args.set });
-    const report = await checkConfig(loaded);
-    ctx.out.result(ctx.args.json ? JSON.stringify(report, null, 2) : formatCheckReport(report, repoRoot));
+    const out = resolve(String(args.out));
+    mkdirSync(dirname(out), { recursive: true });
+    const w = args.workers as string | undefined;
+    const workers = w === undefined || w === 'auto' ? undefined : Number(w);
+    if (workers !== undefined && !(Number.isInteger(workers) && workers >= 0)) throw new UsageError(`--workers must be a whole number >= 0 or auto, got ${w}`);
+    ctx.out.info(`coeval demo: fitting the invented globular cluster "Tessaly 7" (config ${file}).`);
+    ctx.out.info('Its catalogue is synthetic (demo-data/tessaly7.csv, made by coeval simulate); the truth is in demo-data/tessaly7.truth.json.\n');
+    const r = await fit({
+      config: file,
+      sets: ctx.args.set,
+      runDir: out,
+      overwrite: true,
+      workers,
+      observers: [progressReporter({ quiet: ctx.out.quiet })],
+      log: (line) => ctx.out.info(line),
+      warn: (line) => ctx.out.warn(line),
+    });
+    ctx.out.result(formatFitResult(r));
+    ctx.out.info(`\nopen ${resolve(r.runDir, 'report.html')} in a browser for the figures and provenance.`);
     return 0;
   },
 };

@@ -42,6 +42,11 @@ export const catalogueSection = z.strictObject({
   /** Values that mean "no measurement", e.g. 99.999 or -99. Applied to every mapped numeric column. */
   missing: z.array(z.number()).default([]),
   cuts: z.array(cutSchema).default([]),
+  /**
+   * For a simulated catalogue: the truth file `coeval simulate` wrote beside it (relative to the config
+   * file). A fit then records the true parameter values in its manifest, and summaries and plots show them.
+   */
+  truth: z.string().min(1).optional(),
 });
 export type CatalogueConfig = z.infer<typeof catalogueSection>;
 export type CutConfig = z.infer<typeof cutSchema>;

@@ -76,7 +76,7 @@ export const samplerSection = z
     init_starts: z.number().int().min(1).default(4),
     /** Centre of the ball (init = "ball"): a value per sampled parameter. */
     init_point: z.record(z.string(), z.number()).optional(),
-    /** Width of the ball: relative to the prior spread (init = "optimum") or absolute (init = "ball"). */
+    /** init = "ball": the width of the ball (absolute). init = "optimum": the first finite-difference step of the Laplace start, relative to the prior spread. */
     init_scale: z.number().positive().default(1e-3),
     /** Shuffle walkers before each red/blue split. */
     random_split: z.boolean().default(true),
