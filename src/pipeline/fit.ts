@@ -30,6 +30,7 @@ import { tauOfRows } from '../diagnostics/index.js';
 import { createRunDirectory, newRunId, openRunDirectory, RUN_FORMAT, RUN_LAYOUT, RunChainWriter, writeManifest } from '../io/index.js';
 import { catalogArrays } from '../likelihood/spec.js';
 import type { CmdLikelihood } from '../likelihood/cmdLikelihood.js';
+import { annealedStart, blurredLogPosterior, ERROR_FLOOR_SCHEDULE } from './annealedStart.js';
 import type { LikelihoodOptions } from '../likelihood/options.js';
 import { LAW_CITATIONS } from '../stellar/extinction/laws.js';
 import { buildParameterSpace, type ParameterSpace, type PriorSpecs } from '../priors/index.js';
@@ -254,7 +255,7 @@ async function priorDraws(evaluator: Evaluator, space: ParameterSpace, rng: Samp
  * Tolerances suit a start: a log-posterior within 0.05 of the mode is well inside its 1-sigma region,
  * and the walkers' ball then spreads out during burn-in.
  */
-async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: number, starts: number): Promise<{ best: Float64Array; spread: Float64Array; runs: { logPosterior: number; iterations: number; converged: boolean }[]; evaluations: number }> {
+async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: number, starts: number, likelihood: CmdLikelihood): Promise<{ best: Float64Array; spread: Float64Array; runs: { logPosterior: number; iterations: number; converged: boolean }[]; evaluations: number }> {
   const ndim = space.free.length;
   const rng = SamplerRng.fromSeed(seed, 0xfffffff0);
   const nDraws = Math.max(64 * ndim, 4 * starts);
@@ -294,7 +295,14 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
     }
     return { x: r.x, f: r.f, iterations, converged: r.converged };
   };
-  const results = await Promise.all(draws.x.slice(0, Math.min(starts, draws.x.length)).map((x0) => polish(x0)));
+  // Global stage (annealedStart.ts): the prior draws ranked on the CMD blurred by the largest error floor,
+  // the best few followed down the error-floor schedule in this thread; then the local polish on the pool.
+  const blurred = draws.x.map((x) => blurredLogPosterior(likelihood, space, x, ERROR_FLOOR_SCHEDULE[0]));
+  evaluations += draws.x.length;
+  const ranked = draws.x.map((x, i) => ({ x, lp: blurred[i] })).sort((a, b) => b.lp - a.lp);
+  const annealed = await annealedStart(likelihood, space, ranked.slice(0, Math.min(starts, ranked.length)).map((r) => r.x), spread);
+  evaluations += annealed.evaluations;
+  const results = await Promise.all(annealed.points.map((x0) => polish(x0)));
   for (const r of results) for (let j = 0; j < ndim; j++) r.x[j] *= spread[j];
   let best = 0;
   for (let i = 1; i < results.length; i++) if (results[i].f < results[best].f) best = i;
@@ -444,7 +452,7 @@ export async function fit(options: FitOptions): Promise<FitResult> {
       log(`continuing from step ${r.checkpoint.step}`);
     } else {
       t = now();
-      const init = await initialise(evaluator, prep.space, rec.seed, m.nEnsembles, nWalkers, c.sampler, moves, log);
+      const init = await initialise(evaluator, prep.space, rec.seed, m.nEnsembles, nWalkers, c.sampler, moves, log, prep.likelihood);
       samplers = init.samplers;
       evalInit = init.evaluations;
       rec.initialisation = init.record;
@@ -535,6 +543,7 @@ async function initialise(
   s: CoevalConfig['sampler'],
   moves: ReturnType<typeof movesFromConfig>,
   log: (line: string) => void,
+  likelihood: CmdLikelihood,
 ): Promise<{ samplers: EnsembleSampler[]; evaluations: number; record: FitRecord['initialisation'] }> {
   const ndim = space.free.length;
   const names = space.free.map((p) => p.name);
@@ -558,8 +567,8 @@ async function initialise(
       return { samplers, evaluations: nEnsembles * nWalkers, record: { method: `ball of width ${s.init_scale} around init_point`, start: asRecord(center) } };
     }
     case 'optimum': {
-      log(`initialisation: Nelder-Mead (restarted until it stops gaining) from the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws`);
-      const o = await optimise(evaluator, space, seed, s.init_starts);
+      log(`initialisation: the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws on the blurred CMD, followed down the error floors ${ERROR_FLOOR_SCHEDULE.join(', ')} mag, then Nelder-Mead (restarted until it stops gaining)`);
+      const o = await optimise(evaluator, space, seed, s.init_starts, likelihood);
       log(`optimum: log-posterior ${o.runs.map((r) => r.logPosterior.toFixed(2)).join(', ')} (${o.evaluations} evaluations); start ${names.map((n, j) => `${n} ${Number(o.best[j].toPrecision(5))}`).join(', ')}`);
       // Walkers start from the Laplace approximation at the optimum (laplaceStart.ts), so that each
       // ensemble begins with about the posterior's spread; init_scale x the prior's spread is the first step.
@@ -571,7 +580,7 @@ async function initialise(
         samplers,
         evaluations: o.evaluations + lap.evaluations + nEnsembles * nWalkers,
         record: {
-          method: `Nelder-Mead from the best ${o.runs.length} prior draws, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
+          method: `continuation in the error floor from the best ${o.runs.length} prior draws, then Nelder-Mead, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
           optima: o.runs,
           start: asRecord(o.best),
           widths: asRecord(lap.sigma),

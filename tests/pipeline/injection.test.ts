@@ -13,13 +13,10 @@
  * about 15% (sd from ~50 effective draws: relative error 1/sqrt(2 ESS) ~ 10% each), so the test asks for a
  * ratio above 2, 3 such errors below sqrt(10).
  *
- * KNOWN DEFECT (skipped below, reported to the lead): for the two solar-metallicity clusters the start
- * search (Nelder-Mead with restarts from the best of 320 prior draws) ends in a false mode: for old-solar
- * log age 9.94 and f_field 0.12 at log posterior ~5,960 while the truth scores ~7,920, and the ensembles
- * never leave that mode (its width is 0.0005 dex), so the truth lies far outside the 95% interval
- * (old-solar [9.9434, 9.9449] against 9.85; open-young [9.2996, 9.3000] against 9.0). A global start
- * (tempering, or a coarse grid in age and [Fe/H]) is needed; until then these two cases are skipped,
- * not loosened. The old metal-poor case passes.
+ * The start matters: Nelder-Mead from prior draws used to stop in false modes for both solar-metallicity
+ * clusters (old-solar at log age 9.94, log posterior ~5,960 against ~7,920 at the truth). The fit now
+ * follows its starts down a schedule of error floors (src/pipeline/annealedStart.ts), and all three
+ * clusters pass. Each case takes 2-4 minutes of CPU, so this file exceeds the issue's 3-minute budget.
  *
  * Binaries are left out (simulated and fitted f_binary = 0): with them one likelihood evaluation now costs
  * 0.35-1.3 s, far beyond a CI budget.
@@ -29,9 +26,9 @@ import { runScenario, type Scenario, type ScenarioFit } from '../helpers/fitScen
 
 const SHORT: ScenarioFit = { walkers: 12, ensembles: 2, steps: 100, workers: 2 };
 
-const CLUSTERS: (Scenario & { knownDefect?: boolean })[] = [
-  { name: 'open-young', seed: 101, stars: 2000, logAge: 9.0, feh: 0.0, dm: 10.0, ebv: 0.3, fField: 0.1, knownDefect: true },
-  { name: 'old-solar', seed: 102, stars: 2000, logAge: 9.85, feh: 0.0, dm: 11.5, ebv: 0.1, fField: 0.05, knownDefect: true },
+const CLUSTERS: Scenario[] = [
+  { name: 'open-young', seed: 101, stars: 2000, logAge: 9.0, feh: 0.0, dm: 10.0, ebv: 0.3, fField: 0.1 },
+  { name: 'old-solar', seed: 102, stars: 2000, logAge: 9.85, feh: 0.0, dm: 11.5, ebv: 0.1, fField: 0.05 },
   { name: 'old-metal-poor', seed: 103, stars: 2000, logAge: 10.1, feh: -1.8, dm: 14.5, ebv: 0.03, fField: 0.05 },
 ];
 
@@ -45,12 +42,12 @@ const TRUTH_KEYS: Record<string, (s: Scenario) => number> = {
 
 describe('injection and recovery', () => {
   for (const c of CLUSTERS) {
-    it.skipIf(c.knownDefect === true)(`${c.name}: the truth lies inside every 95% interval`, async () => {
+    it(`${c.name}: the truth lies inside every 95% interval`, async () => {
       const { result } = await runScenario(c, SHORT);
       const rows = result.diagnosis.summary.parameters.map((p) => ({ name: p.info.name, truth: TRUTH_KEYS[p.info.name](c), lo: p.p2_5, hi: p.p97_5 }));
       expect(rows.map((r) => r.name)).toEqual(Object.keys(TRUTH_KEYS));
       for (const r of rows) expect(r.truth >= r.lo && r.truth <= r.hi, `${c.name} ${r.name}: truth ${r.truth} outside [${r.lo}, ${r.hi}]`).toBe(true);
-    }, 240_000);
+    }, 600_000);
   }
 
   it('posteriors narrow from 10^3 to 10^4 stars (by about sqrt(10))', async () => {
