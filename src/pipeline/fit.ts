@@ -302,7 +302,10 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
   const ranked = draws.x.map((x, i) => ({ x, lp: blurred[i] })).sort((a, b) => b.lp - a.lp);
   const annealed = await annealedStart(likelihood, space, ranked.slice(0, Math.min(starts, ranked.length)).map((r) => r.x), spread);
   evaluations += annealed.evaluations;
-  const results = await Promise.all(annealed.points.map((x0) => polish(x0)));
+  // The best prior draws on the real posterior are polished too, so the search never does worse than a
+  // purely local start from them (on a small catalogue the blurred CMD can favour another basin).
+  const candidates = [...annealed.points, ...draws.x.slice(0, Math.min(starts, draws.x.length))];
+  const results = await Promise.all(candidates.map((x0) => polish(x0)));
   for (const r of results) for (let j = 0; j < ndim; j++) r.x[j] *= spread[j];
   let best = 0;
   for (let i = 1; i < results.length; i++) if (results[i].f < results[best].f) best = i;
@@ -567,7 +570,7 @@ async function initialise(
       return { samplers, evaluations: nEnsembles * nWalkers, record: { method: `ball of width ${s.init_scale} around init_point`, start: asRecord(center) } };
     }
     case 'optimum': {
-      log(`initialisation: the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws on the blurred CMD, followed down the error floors ${ERROR_FLOOR_SCHEDULE.join(', ')} mag, then Nelder-Mead (restarted until it stops gaining)`);
+      log(`initialisation: the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws on the blurred CMD, followed down the error floors ${ERROR_FLOOR_SCHEDULE.join(', ')} mag, then Nelder-Mead (restarted until it stops gaining) from those and from the best ${s.init_starts} on the posterior itself`);
       const o = await optimise(evaluator, space, seed, s.init_starts, likelihood);
       log(`optimum: log-posterior ${o.runs.map((r) => r.logPosterior.toFixed(2)).join(', ')} (${o.evaluations} evaluations); start ${names.map((n, j) => `${n} ${Number(o.best[j].toPrecision(5))}`).join(', ')}`);
       // Walkers start from the Laplace approximation at the optimum (laplaceStart.ts), so that each
@@ -580,7 +583,7 @@ async function initialise(
         samplers,
         evaluations: o.evaluations + lap.evaluations + nEnsembles * nWalkers,
         record: {
-          method: `continuation in the error floor from the best ${o.runs.length} prior draws, then Nelder-Mead, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
+          method: `continuation in the error floor from the best ${s.init_starts} prior draws on the blurred CMD, and Nelder-Mead from them and from the best ${s.init_starts} on the posterior itself, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
           optima: o.runs,
           start: asRecord(o.best),
           widths: asRecord(lap.sigma),
