@@ -27,6 +27,22 @@ export interface LoadOptions {
   sets?: readonly string[];
 }
 
+/** Parse TOML text (a leading byte-order mark is dropped); a syntax error becomes a located ConfigError. */
+function parseTomlLocated(text: string, file: string | undefined, what: string): Record<string, unknown> {
+  try {
+    return parseToml(text.replace(/^\uFEFF/, '')) as Record<string, unknown>;
+  } catch (err) {
+    if (err instanceof TomlError) {
+      throw new ConfigError(`${what} is not valid TOML: ${err.message.split('\n')[0]}`, {
+        where: { file, line: err.line, column: err.column },
+        expected: 'TOML (https://toml.io): [section] headers and key = value lines',
+        hint: 'fix the syntax at the position shown',
+      });
+    }
+    throw err;
+  }
+}
+
 /** Read, layer and validate a config file: defaults, then the file, then `--set` overrides. */
 export function loadConfig(file: string, options: LoadOptions = {}): LoadedConfig {
   const text = readTextFile(file, 'config file');
@@ -35,19 +51,7 @@ export function loadConfig(file: string, options: LoadOptions = {}): LoadedConfi
 
 export function parseConfigText(text: string, opts: { file?: string; baseDir?: string; sets?: readonly string[] } = {}): LoadedConfig {
   const file = opts.file;
-  let raw: Record<string, unknown>;
-  try {
-    raw = parseToml(text.replace(/^\uFEFF/, '')) as Record<string, unknown>;
-  } catch (err) {
-    if (err instanceof TomlError) {
-      throw new ConfigError(`the config is not valid TOML: ${err.message.split('\n')[0]}`, {
-        where: { file, line: err.line, column: err.column },
-        expected: 'TOML (https://toml.io): [section] headers and key = value lines',
-        hint: 'fix the syntax at the position shown',
-      });
-    }
-    throw err;
-  }
+  const raw = parseTomlLocated(text, file, 'the config');
   const sets = [...(opts.sets ?? [])];
   applyOverrides(raw, sets);
   const config = validate(raw, text, file);
@@ -61,15 +65,7 @@ export function parseConfigText(text: string, opts: { file?: string; baseDir?: s
  */
 export function loadGridMap(file: string): { grid: GridConfig; baseDir: string } {
   const text = readTextFile(file, 'grid column-map file');
-  let raw: Record<string, unknown>;
-  try {
-    raw = parseToml(text.replace(/^\uFEFF/, '')) as Record<string, unknown>;
-  } catch (err) {
-    if (err instanceof TomlError) {
-      throw new ConfigError(`the column map is not valid TOML: ${err.message.split('\n')[0]}`, { where: { file, line: err.line, column: err.column } });
-    }
-    throw err;
-  }
+  const raw = parseTomlLocated(text, file, 'the column map');
   const { grid } = validate(raw, text, file, z.looseObject({ grid: gridSection }));
   return { grid, baseDir: dirname(resolve(file)) };
 }
@@ -89,15 +85,7 @@ export interface LoadedSimulationConfig {
  */
 export function parseSimulationConfigText(text: string, opts: { file?: string; baseDir?: string; sets?: readonly string[] } = {}): LoadedSimulationConfig {
   const file = opts.file;
-  let raw: Record<string, unknown>;
-  try {
-    raw = parseToml(text.replace(/^\uFEFF/, '')) as Record<string, unknown>;
-  } catch (err) {
-    if (err instanceof TomlError) {
-      throw new ConfigError(`the simulation config is not valid TOML: ${err.message.split('\n')[0]}`, { where: { file, line: err.line, column: err.column } });
-    }
-    throw err;
-  }
+  const raw = parseTomlLocated(text, file, 'the simulation config');
   const sets = [...(opts.sets ?? [])];
   applyOverrides(raw, sets);
   const config = validate(raw, text, file, simulationConfigSchema);
