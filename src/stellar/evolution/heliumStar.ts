@@ -7,16 +7,16 @@ import { pow } from './fastMath.js';
 
 /** ZAMS luminosity of a helium star of mass m (eq. 77). */
 export function lZHe(m: number): number {
-  const m3 = m * m * m;
-  const m6 = m3 * m3;
+  const mCube = m * m * m;
+  const mSixth = mCube * mCube;
   const sq = Math.sqrt(m);
-  return (15262 * m6 * m3 * m * pow(m, 0.25)) / (m6 * m3 + 29.54 * m6 * m * sq + 31.18 * m6 + 0.0469);
+  return (15262 * mSixth * mCube * m * pow(m, 0.25)) / (mSixth * mCube + 29.54 * mSixth * m * sq + 31.18 * mSixth + 0.0469);
 }
 
 /** ZAMS radius of a helium star of mass m (eq. 78). */
 export function rZHe(m: number): number {
-  const m3 = m * m * m;
-  return (0.2391 * m3 * m * pow(m, 0.6)) / (m3 * m + 0.162 * m3 + 0.0065);
+  const mCube = m * m * m;
+  return (0.2391 * mCube * m * pow(m, 0.6)) / (mCube * m + 0.162 * mCube + 0.0065);
 }
 
 /** Helium main-sequence lifetime, Myr (eq. 79). */

@@ -37,9 +37,9 @@ export function tMainSequence(model: EvolutionModel, m: number): number {
 /** Luminosity at the end of the main sequence (eq. 8). */
 export function lTMS(model: EvolutionModel, m: number, lnm = Math.log(m)): number {
   const a = model.coef.a;
-  const m3 = m * m * m;
+  const mCube = m * m * m;
   const ma16 = powLn(lnm, a[16]);
-  return (a[11] * m3 + a[12] * m3 * m + a[13] * ma16 * powLn(lnm, 1.8)) / (a[14] + a[15] * m3 * m * m + ma16);
+  return (a[11] * mCube + a[12] * mCube * m + a[13] * ma16 * powLn(lnm, 1.8)) / (a[14] + a[15] * mCube * m * m + ma16);
 }
 
 /** Radius at the end of the main sequence (eq. 9), with R_TMS >= 1.5 R_ZAMS on the low-mass branch. */

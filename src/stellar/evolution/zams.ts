@@ -7,10 +7,10 @@ import type { Coefficients } from './coefficients.js';
 export function zamsLuminosity(c: Coefficients, m: number): number {
   const k = c.zamsL;
   const m2 = m * m;
-  const m3 = m2 * m;
-  const m5 = m3 * m2;
+  const mCube = m2 * m;
+  const m5 = mCube * m2;
   const sq = Math.sqrt(m);
-  return (k[0] * m5 * sq + k[1] * m5 * m5 * m) / (k[2] + m3 + k[3] * m5 + k[4] * m5 * m2 + k[5] * m5 * m3 + k[6] * m5 * m3 * m * sq);
+  return (k[0] * m5 * sq + k[1] * m5 * m5 * m) / (k[2] + mCube + k[3] * m5 + k[4] * m5 * m2 + k[5] * m5 * mCube + k[6] * m5 * mCube * m * sq);
 }
 
 export function zamsRadius(c: Coefficients, m: number): number {

@@ -34,7 +34,7 @@ export const PHOTOMETRY_PROVENANCE: Readonly<Record<PhotometryBand, string>> = {
 
 /** Honest statements of where the built-in photometry is approximate (for ModelProvenance.caveats). */
 export const PHOTOMETRY_CAVEATS: readonly string[] = [
-  'Colour-temperature relations are empirical (infrared flux method) and hold for roughly 4000-8000 K; hotter and cooler stars use documented extensions. Against the Pecaut & Mamajek 2013 dwarf sequence: B-V, M_V and M_G within 0.2 mag from B2 to M5 dwarfs; for B and A dwarfs V-Ic is too red by 0.08-0.15 mag; below 3400 K (M3 and later) BP-RP and V-Ic come out too blue, by up to 0.6 mag at 3060 K, and V-Rc too red by 0.2-0.3 mag. Fits dominated by M dwarfs need a user-supplied isochrone grid.',
+  'Colour-temperature relations are empirical (infrared flux method) and hold for roughly 4000-8000 K; hotter and cooler stars use documented extensions. Against the Pecaut & Mamajek 2013 dwarf sequence: B-V, M_V and M_G within 0.2 mag from B2 to M5 dwarfs; for B and A dwarfs V-Ic is too red by 0.08-0.15 mag; below 3400 K (spectral type M3V and later) BP-RP and V-Ic come out too blue, by up to 0.6 mag at 3060 K, and V-Rc too red by 0.2-0.3 mag. Fits dominated by M dwarfs need a user-supplied isochrone grid.',
   'BC_V and BC_G have no metallicity or gravity terms; colours carry the [Fe/H] and log g dependence.',
   'Johnson-Cousins and Gaia/2MASS magnitudes come from independent calibrations (BC_V with Johnson-Cousins colours; BC_G with Gaia/2MASS colours); G - V is not forced to any relation.',
   'Magnitudes are interpolated in a table of the calibration (log Teff step 0.005 dex, [Fe/H] step 0.1 dex); inputs beyond log Teff 3.35-4.70, log g -1 to 5.5 or [Fe/H] -3.0 to +0.6 take the value at the table edge.',
