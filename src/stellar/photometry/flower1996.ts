@@ -3,7 +3,7 @@
  * coefficients as corrected and reprinted by Torres 2010 (AJ 140, 1158): Table 1 (BC_V, three pieces in
  * log Teff) and Table 2 (log Teff against B-V, the relation for all luminosity classes except
  * supergiants). Coefficient numbers read from repo wangleon/StellarLab (stella/parameter/bc.py, teff.py),
- * which transcribes those tables. Check: BC_V(5772 K) = -0.081, the -0.08 of references.md.
+ * which reproduces those tables. Check: BC_V(5772 K) = -0.081, the -0.08 of references.md.
  *
  * No metallicity or gravity terms: Flower's relations are for solar-neighbourhood stars.
  */

@@ -4,7 +4,7 @@
  * coefficients of their Table 3, then Teff = T0 + P(X), where P is the small residual polynomial of their
  * Table 5 for the star's [Fe/H] bin (+0.5 > [Fe/H] > -0.5, -0.5 >= [Fe/H] > -1.5, -1.5 >= [Fe/H] > -2.5,
  * -2.5 >= [Fe/H] > -4.0), each with its own colour range. Johnson B-V, Cousins V-Rc and V-Ic. Coefficient
- * numbers read from repo wangleon/StellarLab (stella/parameter/teff.py), which transcribes those tables.
+ * numbers read from repo wangleon/StellarLab (stella/parameter/teff.py), which reproduces those tables.
  *
  * Joins: the published P and colour ranges change in steps at the bin limits; here P is blended smoothly
  * over +-0.1 dex around each limit, and the colour range is interpolated linearly in [Fe/H] between bin
