@@ -12,8 +12,9 @@
  * parameter that the model already has. The last stage, with sigma_extra as the priors say, is the fit's
  * own optimiser on the worker pool.
  *
- * Runs in the calling thread on the likelihood the fit has already built: the stages are short, and the
- * pool's posterior cannot hold sigma_extra at a value its prior does not allow.
+ * Runs in the calling thread, on likelihoods of a subset of the stars (the caller chooses one per floor:
+ * a blurred CMD shows its basin with few stars, and the cost of an evaluation grows with the floor), since
+ * the pool's posterior cannot hold sigma_extra at a value its prior does not allow.
  */
 import type { CmdLikelihood } from '../likelihood/cmdLikelihood.js';
 import { CLUSTER_PARAMETER_NAMES } from '../core/parameters.js';
@@ -50,7 +51,7 @@ export interface AnnealedStartResult {
  * free parameter's prior scale: Nelder-Mead works in coordinates divided by it.
  */
 export async function annealedStart(
-  likelihood: CmdLikelihood,
+  likelihoodAt: (floor: number) => CmdLikelihood,
   space: ParameterSpace,
   starts: readonly Float64Array[],
   spread: Float64Array,
@@ -63,7 +64,7 @@ export async function annealedStart(
   let evaluations = 0;
   const logPosteriorAt = (x: Float64Array, floor: number): number => {
     evaluations++;
-    return blurredLogPosterior(likelihood, space, x, floor);
+    return blurredLogPosterior(likelihoodAt(floor), space, x, floor);
   };
   const points: Float64Array[] = [];
   const logPosterior: number[] = [];
