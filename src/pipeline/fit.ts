@@ -348,7 +348,7 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
   evaluations += draws.x.length;
   const ranked = draws.x.map((x, i) => ({ x, lp: blurred[i] })).sort((a, b) => b.lp - a.lp);
   log(`  the same ranked on the blurred CMD: ${stageTime()} s`);
-  const annealed = await annealedStart(searchAt, space, ranked.slice(0, Math.min(starts, ranked.length)).map((r) => r.x), spread);
+  const annealed = await annealedStart(searchAt, space, ranked.slice(0, Math.min(4 * starts, ranked.length)).map((r) => r.x), spread, starts);
   evaluations += annealed.evaluations;
   log(`  continuation down the error floors: ${annealed.evaluations} evaluations, ${stageTime()} s`);
   // The best prior draws on the real posterior are polished too, so the search never does worse than a
