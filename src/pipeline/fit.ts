@@ -259,6 +259,11 @@ async function priorDraws(evaluator: Evaluator, space: ParameterSpace, rng: Samp
  */
 export const SEARCH_STARS = 600;
 
+/** Prior draws optimised on the most blurred CMD, of which the best `starts` go on down the floors. */
+function beamWidth(starts: number): number {
+  return Math.max(8, starts);
+}
+
 async function searchLikelihoods(full: CmdLikelihood, rng: SamplerRng): Promise<(floor: number) => CmdLikelihood> {
   const n = full.nStars;
   // A random permutation (Fisher-Yates, stopped once SEARCH_STARS are placed); subsets are its prefixes.
@@ -348,7 +353,7 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
   evaluations += draws.x.length;
   const ranked = draws.x.map((x, i) => ({ x, lp: blurred[i] })).sort((a, b) => b.lp - a.lp);
   log(`  the same ranked on the blurred CMD: ${stageTime()} s`);
-  const annealed = await annealedStart(searchAt, space, ranked.slice(0, Math.min(4 * starts, ranked.length)).map((r) => r.x), spread, starts);
+  const annealed = await annealedStart(searchAt, space, ranked.slice(0, Math.min(beamWidth(starts), ranked.length)).map((r) => r.x), spread, starts);
   evaluations += annealed.evaluations;
   log(`  continuation down the error floors: ${annealed.evaluations} evaluations, ${stageTime()} s`);
   // The best prior draws on the real posterior are polished too, so the search never does worse than a
@@ -629,7 +634,7 @@ async function initialise(
       return { samplers, evaluations: nEnsembles * nWalkers, record: { method: `ball of width ${s.init_scale} around init_point`, start: asRecord(center) } };
     }
     case 'optimum': {
-      log(`initialisation: the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws on the blurred CMD, followed down the error floors ${ERROR_FLOOR_SCHEDULE.join(', ')} mag, then Nelder-Mead (restarted until it stops gaining) from those and from the best ${s.init_starts} on the posterior itself`);
+      log(`initialisation: Nelder-Mead from the best ${beamWidth(s.init_starts)} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws on the CMD blurred by ${ERROR_FLOOR_SCHEDULE[0]} mag, the best ${s.init_starts} followed down the error floors ${ERROR_FLOOR_SCHEDULE.slice(1).join(', ')} mag (on ${SEARCH_STARS / 4}-${SEARCH_STARS} of the stars), then on the posterior with every star from those and from the best ${s.init_starts} prior draws`);
       const o = await optimise(evaluator, space, seed, s.init_starts, likelihood, log);
       log(`optimum: log-posterior ${o.runs.map((r) => r.logPosterior.toFixed(2)).join(', ')} (${o.evaluations} evaluations); start ${names.map((n, j) => `${n} ${Number(o.best[j].toPrecision(5))}`).join(', ')}`);
       // Walkers start from the Laplace approximation at the optimum (laplaceStart.ts), so that each
@@ -642,7 +647,7 @@ async function initialise(
         samplers,
         evaluations: o.evaluations + lap.evaluations + nEnsembles * nWalkers,
         record: {
-          method: `continuation in the error floor from the best ${s.init_starts} prior draws on the blurred CMD, and Nelder-Mead from them and from the best ${s.init_starts} on the posterior itself, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
+          method: `continuation in the error floor (a beam: ${beamWidth(s.init_starts)} prior draws optimised on the most blurred CMD, the best ${s.init_starts} followed down, on subsets of ${SEARCH_STARS / 4}-${SEARCH_STARS} stars), and Nelder-Mead with every star from them and from the best ${s.init_starts} prior draws, then draws from the Laplace approximation at the optimum (${lap.correlated ? 'finite-difference Hessian' : 'independent normals with the conditional widths'})`,
           optima: o.runs,
           start: asRecord(o.best),
           widths: asRecord(lap.sigma),

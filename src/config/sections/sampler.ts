@@ -72,7 +72,7 @@ export const samplerSection = z
     checkpoint_seconds: z.number().positive().default(600),
     /** Where walkers start: around the optimum Nelder–Mead finds from prior draws, prior draws, or a ball around init_point. */
     init: z.enum(['optimum', 'prior', 'ball']).default('optimum'),
-    /** Nelder–Mead starts (init = "optimum"). */
+    /** init = "optimum": starts followed down the error floors (of max(8, init_starts) optimised at the first), and prior draws polished. */
     init_starts: z.number().int().min(1).default(4),
     /** Centre of the ball (init = "ball"): a value per sampled parameter. */
     init_point: z.record(z.string(), z.number()).optional(),
