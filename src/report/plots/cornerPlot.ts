@@ -61,7 +61,7 @@ function marginalPanel(p: CornerParameter, range: [number, number], size: number
   const bars = counts.map((c, k) => ({ x0: range[0] + k * width, x1: range[0] + (k + 1) * width, c }));
   const [q16, q50, q84] = quantiles(p.draws, [0.16, 0.5, 0.84]);
   const rules = [q16, q50, q84].map((v, k) => ({ v, dash: k === 1 ? 0 : 1 }));
-  const x = { scale: { domain: range, nice: false, zero: false }, axis: showX ? { title: p.label, tickCount: 4 } : { labels: false, title: null, ticks: false } };
+  const x = { scale: { domain: range, nice: false, zero: false }, axis: showX ? { title: p.label, tickCount: 4, labelFlush: true, labelOverlap: true } : { labels: false, title: null, ticks: false } };
   const layer: object[] = [
     { data: { values: bars }, mark: { type: 'rect', color: FILL_68, opacity: 0.8 }, encoding: { x: { field: 'x0', type: 'quantitative', ...x }, x2: { field: 'x1' }, y: { field: 'c', type: 'quantitative', axis: null }, y2: { datum: 0 } } },
     { data: { values: rules }, mark: { type: 'rule', color: '#222' }, encoding: { x: { field: 'v', type: 'quantitative' }, strokeDash: { field: 'dash', type: 'nominal', scale: { range: [[1, 0], [4, 3]] }, legend: null } } },
@@ -99,8 +99,8 @@ function jointPanel(px: CornerParameter, py: CornerParameter, xr: [number, numbe
       data: { values: rings },
       mark: { type: 'line', interpolate: 'linear-closed', strokeWidth: 0.6, clip: true },
       encoding: {
-        x: { field: 'x', type: 'quantitative', scale: scale(xr), axis: showX ? { title: px.label, tickCount: 4 } : { labels: false, title: null, ticks: false } },
-        y: { field: 'y', type: 'quantitative', scale: scale(yr), axis: showY ? { title: py.label, tickCount: 4 } : { labels: false, title: null, ticks: false } },
+        x: { field: 'x', type: 'quantitative', scale: scale(xr), axis: showX ? { title: px.label, tickCount: 4, labelFlush: true, labelOverlap: true } : { labels: false, title: null, ticks: false } },
+        y: { field: 'y', type: 'quantitative', scale: scale(yr), axis: showY ? { title: py.label, tickCount: 4, labelFlush: true, labelOverlap: true } : { labels: false, title: null, ticks: false } },
         order: { field: 'i', type: 'quantitative' },
         detail: { field: 'id', type: 'nominal' },
         fill: { field: 'fill', type: 'nominal', scale: null },
