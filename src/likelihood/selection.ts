@@ -168,6 +168,20 @@ export class Selection {
     return maxL + Math.log(acc);
   }
 
+  /**
+   * Per binary curve: log-adds into out[curve] the IMF-weighted selection probability of each segment of
+   * `set` (without q weights), so that Z_B can be formed at any nested q level (cmdLikelihood.ts).
+   */
+  accumulateCurves(set: SegmentSet, mask: number, sigmaExtra: number, out: Float64Array): void {
+    for (let s = 0; s < set.n; s++) {
+      const l = this.logSegmentSelected(set, s, mask, sigmaExtra);
+      if (l === -Infinity) continue;
+      const j = set.curve[s];
+      const a = out[j];
+      out[j] = a === -Infinity ? l : a > l ? a + Math.log1p(Math.exp(l - a)) : l + Math.log1p(Math.exp(a - l));
+    }
+  }
+
   private logSegmentSelected(set: SegmentSet, s: number, mask: number, sigmaExtra: number): number {
     let inside = true;
     let nPieces = 1;
