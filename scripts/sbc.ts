@@ -10,17 +10,21 @@
  * freedom; p-value from the closed-form survival function for even degrees of freedom, Abramowitz & Stegun
  * 26.4.21), and the coverage of the central 68% and 95% intervals with their binomial standard errors.
  *
- *   npm run validate -- [--n 100] [--stars 300] [--steps 200] [--out validation/sbc]
+ *   npm run validate -- [--n 100] [--stars 300] [--steps 200] [--out validation/sbc] [--resume]
  *
- * Writes OUT.json (every replication), OUT.txt (the figures) and OUT.svg (the rank histograms).
+ * Writes OUT.json (every replication, rewritten atomically after each one), OUT.txt (the figures) and
+ * OUT.svg (the rank histograms). With --resume, the replications already in OUT.json are kept and the run
+ * goes on from the next one; replication i always has the same truth and seed, so a resumed run is the
+ * same run.
  * Thinning: 109 draws spread over ~4,000 correlated ones; ranks from correlated draws would pile up at the
  * ends, so the run length must be many autocorrelation times (the script reports the mean tau).
  */
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { parseConfigText, parseSimulationConfigText } from '../src/config/index.js';
+import { writeFileAtomic } from '../src/core/atomicWrite.js';
 import { readRunChains } from '../src/io/index.js';
 import { fit } from '../src/pipeline/fit.js';
 import { simulateCluster } from '../src/pipeline/simulate.js';
@@ -132,21 +136,27 @@ function figures(reps: Replication[]): { text: string; svg: string } {
 }
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { n: { type: 'string', default: '100' }, stars: { type: 'string', default: '300' }, steps: { type: 'string', default: '200' }, out: { type: 'string', default: 'validation/sbc' }, seed: { type: 'string', default: '2018' } } });
+  const { values } = parseArgs({ options: { n: { type: 'string', default: '100' }, stars: { type: 'string', default: '300' }, steps: { type: 'string', default: '200' }, out: { type: 'string', default: 'validation/sbc' }, seed: { type: 'string', default: '2018' }, resume: { type: 'boolean', default: false } } });
   const n = Number(values.n);
   const out = resolve(values.out as string);
   mkdirSync(dirname(out), { recursive: true });
   const rng = SamplerRng.fromSeed(Number(values.seed), 1);
-  const reps: Replication[] = [];
+  const reps: Replication[] = values.resume && existsSync(`${out}.json`) ? (JSON.parse(readFileSync(`${out}.json`, 'utf8')) as Replication[]) : [];
+  if (reps.length > 0) process.stderr.write(`resuming after ${reps.length} replications from ${out}.json\n`);
   for (let i = 0; i < n; i++) {
+    if (i < reps.length) {
+      // Replay the truth's draws, so that later replications get the truths they would have had.
+      for (let k = 0; k < NAMES.length; k++) rng.uniform();
+      continue;
+    }
     const r = await replicate(i, Number(values.seed) * 1000 + i + 1, Number(values.stars), Number(values.steps), rng);
     reps.push(r);
     process.stderr.write(`replication ${i + 1}/${n}: ${r.seconds.toFixed(1)} s, ranks ${NAMES.map((nm) => r.rank[nm]).join(' ')}\n`);
-    writeFileSync(`${out}.json`, `${JSON.stringify(reps)}\n`);
+    writeFileAtomic(`${out}.json`, `${JSON.stringify(reps)}\n`);
   }
   const f = figures(reps);
-  writeFileSync(`${out}.txt`, f.text);
-  writeFileSync(`${out}.svg`, f.svg);
+  writeFileAtomic(`${out}.txt`, f.text);
+  writeFileAtomic(`${out}.svg`, f.svg);
   process.stdout.write(f.text);
 }
 

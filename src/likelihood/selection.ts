@@ -16,12 +16,14 @@
  *
  * Z (for singles, or binaries) is the IMF-weighted integral of P along the model sequence. Segments
  * lying at least 8 sigma inside every limit (and where c = 1) contribute their whole weight; segments 8
- * sigma outside contribute nothing; the rest are cut into pieces no longer than the local sigma in any
- * band and integrated with 4-point Gauss-Legendre, whose error on a piece of length h is
- * h^9 (4!)^4 / (9 (8!)^3) max|f^(8)| = 5.6e-10 h^9 max|f^(8)| (Abramowitz & Stegun 1964, 25.4.30). For a
- * normal CDF of width sigma, max|f^(8)| = max_z |He_7(z) phi(z)| / sigma^8 = 14.2 / sigma^8 (evaluated on
- * a grid of step 1e-4), so the error is below 1e-8 of the piece for h = sigma (the IMF weight varies on far
- * longer scales), far below the 1e-6 to which Z_B is refined. Z is computed per pattern of present bands:
+ * sigma outside contribute nothing; on the rest, only the stretches within 8 sigma of a limit (or where the
+ * completeness is below 1) are cut into pieces no longer than the local sigma in any band and integrated
+ * with 4-point Gauss-Legendre; the stretches between are the IMF weight in closed form, or zero. The
+ * Gauss-Legendre error on a piece of length h is h^9 (4!)^4 / (9 (8!)^3) max|f^(8)| = 5.6e-10 h^9 max|f^(8)|
+ * (Abramowitz & Stegun 1964, 25.4.30). For a normal CDF of width sigma, max|f^(8)| = max_z |He_7(z) phi(z)|
+ * / sigma^8 = 14.2 / sigma^8 (evaluated on a grid of step 1e-4), so the error is below 1e-8 of the piece for
+ * h = sigma (the IMF weight varies on far longer scales), far below the 1e-6 to which Z_B is refined.
+ * Z is computed per pattern of present bands:
  * a star missing a band was selected on the bands it has.
  */
 import { logNormalDiff, normalCdf } from './normalTail.js';
@@ -186,36 +188,91 @@ export class Selection {
     }
   }
 
+  /** Scratch: the ends of the transition zones along one segment (two per limit). */
+  private readonly breaks = new Float64Array(2 + 4 * 16);
+
   private logSegmentSelected(set: SegmentSet, s: number, mask: number, sigmaExtra: number): number {
+    // Per band, the selection probability is 1 more than 8 sigma inside its limits and 0 more than 8 sigma
+    // outside (to Phi(-8) = 6e-16). Only the stretches of the segment within 8 sigma of a limit (its
+    // transition zones; for the completeness band, also wherever c < 1) need quadrature; elsewhere the
+    // integrand is the IMF weight alone or zero, integrated in closed form.
+    const br = this.breaks;
+    let nb = 0;
+    br[nb++] = 0;
+    br[nb++] = 1;
     let inside = true;
-    let nPieces = 1;
     for (let b = 0; b < this.nBands; b++) {
       if (!this.limited[b] || !(mask & (1 << b))) continue;
       const lo = set.lo[b][s];
       const hi = set.hi[b][s];
       const seLo = errorAt(this.errors[b], lo);
       const seHi = errorAt(this.errors[b], hi);
-      const sMin = Math.sqrt(Math.min(seLo, seHi) ** 2 + sigmaExtra * sigmaExtra);
       const sMax = Math.sqrt(Math.max(seLo, seHi) ** 2 + sigmaExtra * sigmaExtra);
-      const br = this.bright[b];
-      const fa = this.faint[b];
-      if (hi < br - 8 * sMax || lo > fa + 8 * sMax) return -Infinity;
-      const cutoff = this.completeness && this.completeness.band === b ? Math.min(fa, this.fullUntil) : fa;
-      if (!(lo >= br + 8 * sMax && hi <= cutoff - 8 * sMax)) {
-        inside = false;
-        nPieces = Math.max(nPieces, Math.ceil(Math.abs(set.delta[b][s]) / sMin));
+      const bright = this.bright[b];
+      const faint = this.faint[b];
+      if (hi < bright - 8 * sMax || lo > faint + 8 * sMax) return -Infinity;
+      const cutoff = this.completeness && this.completeness.band === b ? Math.min(faint, this.fullUntil) : faint;
+      if (lo >= bright + 8 * sMax && hi <= cutoff - 8 * sMax) continue;
+      inside = false;
+      const m0 = set.start[b][s];
+      const d = set.delta[b][s];
+      if (d === 0 || nb + 4 > br.length) continue;
+      for (const edge of [bright - 8 * sMax, bright + 8 * sMax, cutoff - 8 * sMax, faint + 8 * sMax]) {
+        const t = (edge - m0) / d;
+        if (t > 0 && t < 1) br[nb++] = t;
       }
     }
     const c0 = set.c0[s];
     const c1 = set.c1[s];
     const c2 = set.c2[s];
     if (inside) return logSegmentIntegral(0, 0, 0, c0, c1, c2);
+    br.subarray(0, nb).sort();
+    let maxL = -Infinity;
+    let acc = 0;
+    for (let k = 0; k + 1 < nb; k++) {
+      const u = br[k];
+      const v = br[k + 1];
+      if (!(v > u)) continue;
+      const l = this.logPieceSelected(set, s, mask, sigmaExtra, u, v);
+      if (l === -Infinity) continue;
+      if (l > maxL) {
+        acc = acc * Math.exp(maxL - l) + 1;
+        maxL = l;
+      } else acc += Math.exp(l - maxL);
+    }
+    return maxL === -Infinity ? -Infinity : maxL + Math.log(acc);
+  }
+
+  /** log of the selected IMF weight over t in [u, v] of segment s, a stretch inside or outside every transition zone. */
+  private logPieceSelected(set: SegmentSet, s: number, mask: number, sigmaExtra: number, u: number, v: number): number {
+    const c0 = set.c0[s];
+    const c1 = set.c1[s];
+    const c2 = set.c2[s];
+    const w = v - u;
+    // Is the stretch within 8 sigma of some limit (or where c < 1)? Decided at its midpoint, since its ends
+    // are zone ends; also sets the number of pieces: none longer than the local sigma (see the header).
+    let nPieces = 0;
+    const tm = 0.5 * (u + v);
+    for (let b = 0; b < this.nBands; b++) {
+      if (!this.limited[b] || !(mask & (1 << b))) continue;
+      const m0 = set.start[b][s];
+      const d = set.delta[b][s];
+      const mu = m0 + tm * d;
+      const sMax = Math.sqrt(Math.max(errorAt(this.errors[b], set.lo[b][s]), errorAt(this.errors[b], set.hi[b][s])) ** 2 + sigmaExtra * sigmaExtra);
+      const cutoff = this.completeness && this.completeness.band === b ? Math.min(this.faint[b], this.fullUntil) : this.faint[b];
+      if (mu >= this.bright[b] + 8 * sMax && mu <= cutoff - 8 * sMax) continue;
+      if (mu < this.bright[b] - 8 * sMax || mu > this.faint[b] + 8 * sMax) return -Infinity;
+      const sMin = Math.sqrt(Math.min(errorAt(this.errors[b], set.lo[b][s]), errorAt(this.errors[b], set.hi[b][s])) ** 2 + sigmaExtra * sigmaExtra);
+      nPieces = Math.max(nPieces, Math.ceil((Math.abs(d) * w) / sMin));
+    }
+    // Inside every window by 8 sigma: the IMF weight over [u, v] in closed form (t = u + w tau).
+    if (nPieces === 0) return logSegmentIntegral(0, 0, 0, c0 + c1 * u + c2 * u * u + Math.log(w), (c1 + 2 * c2 * u) * w, c2 * w * w);
     nPieces = Math.min(nPieces, 4000);
     let total = 0;
-    const h = 1 / nPieces;
+    const h = w / nPieces;
     for (let p = 0; p < nPieces; p++) {
       for (let g = 0; g < 4; g++) {
-        const t = (p + 0.5 + 0.5 * GL4_X[g]) * h;
+        const t = u + (p + 0.5 + 0.5 * GL4_X[g]) * h;
         let prob = 1;
         for (let b = 0; b < this.nBands && prob > 0; b++) {
           if (!this.limited[b] || !(mask & (1 << b))) continue;

@@ -45,3 +45,17 @@ export async function createLikelihoodFromSpec(spec: LikelihoodSpec): Promise<Cm
   const extinction = await resolveRef<ExtinctionModel>(spec.extinction, 'extinction model');
   return new CmdLikelihood(spec.catalog, source, extinction, spec.options);
 }
+
+/** The catalogue arrays restricted to the stars at `rows` (indices in increasing order). */
+export function selectStars(c: CatalogArrays, rows: Int32Array): CatalogArrays {
+  const pick = (a: Float64Array): Float64Array => Float64Array.from(rows, (i) => a[i]);
+  return {
+    bands: [...c.bands],
+    nStars: rows.length,
+    mag: c.mag.map(pick),
+    err: c.err.map(pick),
+    membership: c.membership && pick(c.membership),
+    parallaxMas: c.parallaxMas && pick(c.parallaxMas),
+    parallaxErrorMas: c.parallaxErrorMas && pick(c.parallaxErrorMas),
+  };
+}

@@ -28,7 +28,7 @@ import { applyOverrides } from '../config/overrides.js';
 import { configSchema, loadConfig, resolveConfigPath, runDirectory, type CoevalConfig, type LoadedConfig } from '../config/index.js';
 import { tauOfRows } from '../diagnostics/index.js';
 import { createRunDirectory, newRunId, openRunDirectory, RUN_FORMAT, RUN_LAYOUT, RunChainWriter, writeManifest } from '../io/index.js';
-import { catalogArrays } from '../likelihood/spec.js';
+import { catalogArrays, selectStars } from '../likelihood/spec.js';
 import type { CmdLikelihood } from '../likelihood/cmdLikelihood.js';
 import { annealedStart, blurredLogPosterior, ERROR_FLOOR_SCHEDULE } from './annealedStart.js';
 import type { LikelihoodOptions } from '../likelihood/options.js';
@@ -251,14 +251,43 @@ async function priorDraws(evaluator: Evaluator, space: ParameterSpace, rng: Samp
 }
 
 /**
+ * The blurred stages only have to find the basin of the posterior, and a CMD blurred by a few hundredths of
+ * a magnitude shows it as well with a few hundred stars as with all of them, at a fraction of the cost (the
+ * cost of an evaluation grows with the number of stars and with the floor). The polish that follows uses
+ * every star.
+ */
+export const SEARCH_STARS = 600;
+
+async function searchLikelihood(full: CmdLikelihood, rng: SamplerRng): Promise<CmdLikelihood> {
+  const n = full.nStars;
+  if (n <= SEARCH_STARS) return full;
+  // The first SEARCH_STARS of a random permutation (Fisher-Yates, stopped early), in catalogue order.
+  const idx = Int32Array.from({ length: n }, (_, i) => i);
+  for (let k = 0; k < SEARCH_STARS; k++) {
+    const j = k + rng.integer(n - k);
+    const tmp = idx[k];
+    idx[k] = idx[j];
+    idx[j] = tmp;
+  }
+  const { CmdLikelihood: Likelihood } = await import('../likelihood/cmdLikelihood.js');
+  return new Likelihood(selectStars(full.data, idx.slice(0, SEARCH_STARS).sort()), full.source, full.extinction, full.options);
+}
+
+/**
  * Nelder–Mead from the best `starts` prior draws (concurrently, so the pool evaluates them together).
  * Tolerances suit a start: a log-posterior within 0.05 of the mode is well inside its 1-sigma region,
  * and the walkers' ball then spreads out during burn-in.
  */
-async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: number, starts: number, likelihood: CmdLikelihood): Promise<{ best: Float64Array; spread: Float64Array; runs: { logPosterior: number; iterations: number; converged: boolean }[]; evaluations: number }> {
+async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: number, starts: number, likelihood: CmdLikelihood, log: (line: string) => void): Promise<{ best: Float64Array; spread: Float64Array; runs: { logPosterior: number; iterations: number; converged: boolean }[]; evaluations: number }> {
   const ndim = space.free.length;
   const rng = SamplerRng.fromSeed(seed, 0xfffffff0);
   const nDraws = Math.max(64 * ndim, 4 * starts);
+  let t = now();
+  const stageTime = (): string => {
+    const s = ((now() - t) / 1000).toFixed(1);
+    t = now();
+    return s;
+  };
   const draws = await priorDraws(evaluator, space, rng, nDraws);
   // Each parameter's scale: the spread of its prior (from quantiles; works for unbounded priors too).
   const spread = Float64Array.from(space.priors, (p) => {
@@ -297,15 +326,20 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
   };
   // Global stage (annealedStart.ts): the prior draws ranked on the CMD blurred by the largest error floor,
   // the best few followed down the error-floor schedule in this thread; then the local polish on the pool.
-  const blurred = draws.x.map((x) => blurredLogPosterior(likelihood, space, x, ERROR_FLOOR_SCHEDULE[0]));
+  const search = await searchLikelihood(likelihood, rng);
+  const blurred = draws.x.map((x) => blurredLogPosterior(search, space, x, ERROR_FLOOR_SCHEDULE[0]));
   evaluations += draws.x.length;
   const ranked = draws.x.map((x, i) => ({ x, lp: blurred[i] })).sort((a, b) => b.lp - a.lp);
-  const annealed = await annealedStart(likelihood, space, ranked.slice(0, Math.min(starts, ranked.length)).map((r) => r.x), spread);
+  log(`  prior draws ranked on the blurred CMD: ${stageTime()} s`);
+  const annealed = await annealedStart(search, space, ranked.slice(0, Math.min(starts, ranked.length)).map((r) => r.x), spread);
   evaluations += annealed.evaluations;
+  log(`  continuation down the error floors: ${annealed.evaluations} evaluations, ${stageTime()} s`);
   // The best prior draws on the real posterior are polished too, so the search never does worse than a
   // purely local start from them (on a small catalogue the blurred CMD can favour another basin).
   const candidates = [...annealed.points, ...draws.x.slice(0, Math.min(starts, draws.x.length))];
+  const before = evaluations;
   const results = await Promise.all(candidates.map((x0) => polish(x0)));
+  log(`  Nelder-Mead on the posterior: ${evaluations - before} evaluations, ${stageTime()} s`);
   for (const r of results) for (let j = 0; j < ndim; j++) r.x[j] *= spread[j];
   let best = 0;
   for (let i = 1; i < results.length; i++) if (results[i].f < results[best].f) best = i;
@@ -571,7 +605,7 @@ async function initialise(
     }
     case 'optimum': {
       log(`initialisation: the best ${s.init_starts} of ${Math.max(64 * ndim, 4 * s.init_starts)} prior draws on the blurred CMD, followed down the error floors ${ERROR_FLOOR_SCHEDULE.join(', ')} mag, then Nelder-Mead (restarted until it stops gaining) from those and from the best ${s.init_starts} on the posterior itself`);
-      const o = await optimise(evaluator, space, seed, s.init_starts, likelihood);
+      const o = await optimise(evaluator, space, seed, s.init_starts, likelihood, log);
       log(`optimum: log-posterior ${o.runs.map((r) => r.logPosterior.toFixed(2)).join(', ')} (${o.evaluations} evaluations); start ${names.map((n, j) => `${n} ${Number(o.best[j].toPrecision(5))}`).join(', ')}`);
       // Walkers start from the Laplace approximation at the optimum (laplaceStart.ts), so that each
       // ensemble begins with about the posterior's spread; init_scale x the prior's spread is the first step.
