@@ -12,8 +12,9 @@
  * parameter that the model already has. The last stage, with sigma_extra as the priors say, is the fit's
  * own optimiser on the worker pool.
  *
- * Runs in the calling thread on the likelihood the fit has already built: the stages are short, and the
- * pool's posterior cannot hold sigma_extra at a value its prior does not allow.
+ * Runs in the calling thread, on likelihoods of a subset of the stars (the caller chooses one per floor:
+ * a blurred CMD shows its basin with few stars, and the cost of an evaluation grows with the floor), since
+ * the pool's posterior cannot hold sigma_extra at a value its prior does not allow.
  */
 import type { CmdLikelihood } from '../likelihood/cmdLikelihood.js';
 import { CLUSTER_PARAMETER_NAMES } from '../core/parameters.js';
@@ -46,14 +47,18 @@ export interface AnnealedStartResult {
 }
 
 /**
- * Anneal each of `starts` (free-parameter vectors) through the error-floor schedule. `spread` is each
- * free parameter's prior scale: Nelder-Mead works in coordinates divided by it.
+ * Anneal `starts` (free-parameter vectors) through the error-floor schedule as a beam: every point is
+ * optimised at a floor, then only the best `keep` go on to the next. Starting wider than the beam keeps is
+ * what makes the search global: the first, most blurred, stage still has a few basins, and a search from
+ * two points can end in the wrong one. `spread` is each free parameter's prior scale: Nelder-Mead works in
+ * coordinates divided by it.
  */
 export async function annealedStart(
-  likelihood: CmdLikelihood,
+  likelihoodAt: (floor: number) => CmdLikelihood,
   space: ParameterSpace,
   starts: readonly Float64Array[],
   spread: Float64Array,
+  keep: number = starts.length,
   schedule: readonly number[] = ERROR_FLOOR_SCHEDULE,
 ): Promise<AnnealedStartResult> {
   const ndim = space.free.length;
@@ -63,13 +68,12 @@ export async function annealedStart(
   let evaluations = 0;
   const logPosteriorAt = (x: Float64Array, floor: number): number => {
     evaluations++;
-    return blurredLogPosterior(likelihood, space, x, floor);
+    return blurredLogPosterior(likelihoodAt(floor), space, x, floor);
   };
-  const points: Float64Array[] = [];
-  const logPosterior: number[] = [];
-  for (const start of starts) {
-    const x = Float64Array.from(start);
-    for (const [stage, floor] of schedule.entries()) {
+  let beam = starts.map((s) => ({ x: Float64Array.from(s), lp: -Infinity }));
+  for (const [stage, floor] of schedule.entries()) {
+    for (const point of beam) {
+      const x = point.x;
       const objective = (z: Float64Array): number => {
         moved.forEach((j, k) => (x[j] = z[k] * spread[j]));
         const v = logPosteriorAt(x, floor);
@@ -83,9 +87,9 @@ export async function annealedStart(
       const last = stage === schedule.length - 1;
       const r = await nelderMead(objective, z0, { step, fTolerance: last ? 0.05 : 0.5, xTolerance: 1e-3, maxIterations: (last ? 100 : 40) * moved.length });
       moved.forEach((j, k) => (x[j] = r.x[k] * spread[j]));
+      point.lp = -r.f;
     }
-    points.push(x);
-    logPosterior.push(logPosteriorAt(x, schedule[schedule.length - 1]));
+    beam = beam.sort((a, b) => b.lp - a.lp).slice(0, keep);
   }
-  return { points, logPosterior, evaluations };
+  return { points: beam.map((p) => p.x), logPosterior: beam.map((p) => p.lp), evaluations };
 }

@@ -251,26 +251,37 @@ async function priorDraws(evaluator: Evaluator, space: ParameterSpace, rng: Samp
 }
 
 /**
- * The blurred stages only have to find the basin of the posterior, and a CMD blurred by a few hundredths of
- * a magnitude shows it as well with a few hundred stars as with all of them, at a fraction of the cost (the
- * cost of an evaluation grows with the number of stars and with the floor). The polish that follows uses
- * every star.
+ * The blurred stages only have to find the basin of the posterior, and a CMD blurred by a floor s shows it
+ * with a few hundred stars as well as with all of them, at a fraction of the cost. An evaluation's cost
+ * grows with the number of stars and with s (a star's Gaussian then covers more of the isochrone), so each
+ * floor gets about SEARCH_STARS x 0.025 / s stars (between SEARCH_STARS / 4 and SEARCH_STARS), nested
+ * subsets of one random draw from the catalogue. The polish that follows uses every star.
  */
 export const SEARCH_STARS = 600;
 
-async function searchLikelihood(full: CmdLikelihood, rng: SamplerRng): Promise<CmdLikelihood> {
+async function searchLikelihoods(full: CmdLikelihood, rng: SamplerRng): Promise<(floor: number) => CmdLikelihood> {
   const n = full.nStars;
-  if (n <= SEARCH_STARS) return full;
-  // The first SEARCH_STARS of a random permutation (Fisher-Yates, stopped early), in catalogue order.
+  // A random permutation (Fisher-Yates, stopped once SEARCH_STARS are placed); subsets are its prefixes.
   const idx = Int32Array.from({ length: n }, (_, i) => i);
-  for (let k = 0; k < SEARCH_STARS; k++) {
+  const m = Math.min(n, SEARCH_STARS);
+  for (let k = 0; k < m; k++) {
     const j = k + rng.integer(n - k);
     const tmp = idx[k];
     idx[k] = idx[j];
     idx[j] = tmp;
   }
   const { CmdLikelihood: Likelihood } = await import('../likelihood/cmdLikelihood.js');
-  return new Likelihood(selectStars(full.data, idx.slice(0, SEARCH_STARS).sort()), full.source, full.extinction, full.options);
+  const bySize = new Map<number, CmdLikelihood>();
+  return (floor: number): CmdLikelihood => {
+    const size = Math.min(n, Math.round(Math.min(SEARCH_STARS, Math.max(SEARCH_STARS / 4, (SEARCH_STARS * 0.025) / floor))));
+    if (size === n) return full;
+    let lik = bySize.get(size);
+    if (!lik) {
+      lik = new Likelihood(selectStars(full.data, idx.slice(0, size).sort()), full.source, full.extinction, full.options);
+      bySize.set(size, lik);
+    }
+    return lik;
+  };
 }
 
 /**
@@ -289,6 +300,7 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
     return s;
   };
   const draws = await priorDraws(evaluator, space, rng, nDraws);
+  log(`  ${nDraws} prior draws on the posterior: ${stageTime()} s`);
   // Each parameter's scale: the spread of its prior (from quantiles; works for unbounded priors too).
   const spread = Float64Array.from(space.priors, (p) => {
     const s = p.fromUnit(0.84) - p.fromUnit(0.16);
@@ -311,34 +323,47 @@ async function optimise(evaluator: Evaluator, space: ParameterSpace, seed: numbe
   // log-posterior units high for a large catalogue with small errors); restarting it from its own answer
   // with a fresh simplex until a restart gains less than 0.5 is the usual remedy (Press et al. 2007,
   // Numerical Recipes 3rd ed., section 10.5).
-  const polish = async (x0: Float64Array): Promise<{ x: Float64Array; f: number; iterations: number; converged: boolean }> => {
-    const opts = { fTolerance: 0.05, xTolerance: 1e-3, maxIterations: 150 * ndim };
-    let r = await nelderMead(negLogProb, Float64Array.from(x0, (v, j) => v / spread[j]), { ...opts, step });
+  const opts = { fTolerance: 0.05, xTolerance: 1e-3, maxIterations: 150 * ndim };
+  type Polished = { x: Float64Array; f: number; iterations: number; converged: boolean };
+  const climb = async (x0: Float64Array): Promise<Polished> => {
+    const r = await nelderMead(negLogProb, Float64Array.from(x0, (v, j) => v / spread[j]), { ...opts, step });
+    return { x: r.x, f: r.f, iterations: r.iterations, converged: r.converged };
+  };
+  const restartUntilFlat = async (start: Polished): Promise<Polished> => {
+    let r = start;
     let iterations = r.iterations;
     for (let k = 0; k < 8; k++) {
       const again = await nelderMead(negLogProb, r.x, { ...opts, step: restartStep });
       iterations += again.iterations;
       const gain = r.f - again.f;
-      if (again.f < r.f) r = again;
+      if (again.f < r.f) r = { x: again.x, f: again.f, iterations, converged: again.converged };
       if (!(gain > 0.5)) break;
     }
-    return { x: r.x, f: r.f, iterations, converged: r.converged };
+    return { ...r, iterations };
   };
   // Global stage (annealedStart.ts): the prior draws ranked on the CMD blurred by the largest error floor,
   // the best few followed down the error-floor schedule in this thread; then the local polish on the pool.
-  const search = await searchLikelihood(likelihood, rng);
-  const blurred = draws.x.map((x) => blurredLogPosterior(search, space, x, ERROR_FLOOR_SCHEDULE[0]));
+  const searchAt = await searchLikelihoods(likelihood, rng);
+  const blurred = draws.x.map((x) => blurredLogPosterior(searchAt(ERROR_FLOOR_SCHEDULE[0]), space, x, ERROR_FLOOR_SCHEDULE[0]));
   evaluations += draws.x.length;
   const ranked = draws.x.map((x, i) => ({ x, lp: blurred[i] })).sort((a, b) => b.lp - a.lp);
-  log(`  prior draws ranked on the blurred CMD: ${stageTime()} s`);
-  const annealed = await annealedStart(search, space, ranked.slice(0, Math.min(starts, ranked.length)).map((r) => r.x), spread);
+  log(`  the same ranked on the blurred CMD: ${stageTime()} s`);
+  const annealed = await annealedStart(searchAt, space, ranked.slice(0, Math.min(4 * starts, ranked.length)).map((r) => r.x), spread, starts);
   evaluations += annealed.evaluations;
   log(`  continuation down the error floors: ${annealed.evaluations} evaluations, ${stageTime()} s`);
   // The best prior draws on the real posterior are polished too, so the search never does worse than a
   // purely local start from them (on a small catalogue the blurred CMD can favour another basin).
   const candidates = [...annealed.points, ...draws.x.slice(0, Math.min(starts, draws.x.length))];
   const before = evaluations;
-  const results = await Promise.all(candidates.map((x0) => polish(x0)));
+  // One climb from every candidate (concurrently, so the pool evaluates them together); the restarts,
+  // which creep along the ridge and cost most, only from the candidates that ended within 50 of the best.
+  // A climb stalled on the ridge ends a few units below its top (restarts gain less than that); a candidate
+  // 50 below the best after a full climb sits in another basin (false modes in the injection clusters lie
+  // 1,000-2,000 below the true one), and restarting it costs thousands of evaluations for nothing.
+  const results = await Promise.all(candidates.map((x0) => climb(x0)));
+  const fBest = Math.min(...results.map((r) => r.f));
+  const finals = await Promise.all(results.map((r) => (r.f <= fBest + 50 ? restartUntilFlat(r) : r)));
+  results.splice(0, results.length, ...finals);
   log(`  Nelder-Mead on the posterior: ${evaluations - before} evaluations, ${stageTime()} s`);
   for (const r of results) for (let j = 0; j < ndim; j++) r.x[j] *= spread[j];
   let best = 0;

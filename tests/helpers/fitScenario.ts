@@ -29,6 +29,10 @@ export interface ScenarioFit {
   ensembles: number;
   steps: number;
   workers: number;
+  /** Nelder-Mead starts of the initialisation (config sampler.init_starts); default 2. */
+  initStarts?: number;
+  /** Posterior draws for the per-star results (stars.arrow); default 20. */
+  starDraws?: number;
   /** Extra lines for the fit config's [sampler]. */
   sampler?: string;
 }
@@ -64,7 +68,7 @@ export function fitConfigText(s: Scenario, limits: string, f: ScenarioFit): stri
     'f_binary = 0',
     `f_field = ${u(0, 0.3)}`,
     'sigma_extra = 0',
-    `[sampler]\nseed = ${s.seed}\nensembles = ${f.ensembles}\nwalkers = ${f.walkers}\nstop = "fixed"\nsteps = ${f.steps}\nworkers = ${f.workers}\ninit_starts = 2\n${f.sampler ?? ''}`,
+    `[sampler]\nseed = ${s.seed}\nensembles = ${f.ensembles}\nwalkers = ${f.walkers}\nstop = "fixed"\nsteps = ${f.steps}\nworkers = ${f.workers}\ninit_starts = ${f.initStarts ?? 2}\n${f.sampler ?? ''}`,
   ].join('\n');
 }
 
@@ -75,6 +79,6 @@ export async function runScenario(s: Scenario, f: ScenarioFit): Promise<{ dir: s
   const text = fitConfigText(s, limits, f);
   writeFileSync(join(dir, 'fit.toml'), text);
   const loaded = parseConfigText(text, { file: join(dir, 'fit.toml'), baseDir: dir });
-  const result = await fit({ loaded, runDir: join(dir, 'run'), report: false, starDraws: 20 });
+  const result = await fit({ loaded, runDir: join(dir, 'run'), report: false, starDraws: f.starDraws ?? 20 });
   return { dir, result };
 }

@@ -24,7 +24,7 @@
 import { describe, expect, it } from 'vitest';
 import { runScenario, type Scenario, type ScenarioFit } from '../helpers/fitScenario.js';
 
-const SHORT: ScenarioFit = { walkers: 12, ensembles: 2, steps: 100, workers: 2 };
+const SHORT: ScenarioFit = { walkers: 12, ensembles: 2, steps: 100, workers: 2, initStarts: 1, starDraws: 4 };
 
 const CLUSTERS: Scenario[] = [
   { name: 'open-young', seed: 101, stars: 2000, logAge: 9.0, feh: 0.0, dm: 10.0, ebv: 0.3, fField: 0.1 },
