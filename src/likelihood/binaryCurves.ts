@@ -42,17 +42,18 @@ export class BinaryCurveBuilder {
   }
 
   /**
-   * Append the segments of the curves j = 0, step, 2 step, ... (<= grid.n0) to `out` (after reset), for
-   * primaries from polyline node `kStart` on (lower-mass primaries make no binary the likelihood can see).
+   * Append the segments of the curves j = first, first + step, first + 2 step, ... (<= grid.n0) to `out`
+   * (after reset), for primaries from polyline node `kStart` on (lower-mass primaries make no binary the
+   * likelihood can see).
    */
-  build(poly: ModelPolyline, grid: QGrid, step: number, out: SegmentSet, kStart = 0): void {
+  build(poly: ModelPolyline, grid: QGrid, step: number, out: SegmentSet, kStart = 0, first = 0): void {
     out.reset();
     const K = poly.n;
     this.ensure(2 * K + 2);
     const lnM = poly.lnMass;
     const lnLast = lnM[K - 1];
     const seg = poly.segments;
-    for (let j = 0; j <= grid.n0; j += step) {
+    for (let j = first; j <= grid.n0; j += step) {
       const lnQ = grid.lnQ[j];
       // Merge primary nodes with the crossings lnM_i - lnQ.
       let n = 0;

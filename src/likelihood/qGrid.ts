@@ -18,15 +18,20 @@
  * exact for cubics). Tested on model integrands (a constant, a plateau, interior bumps, bumps cut at q = 1,
  * offsets widths 0.012-0.05 mag): with 64 intervals the relative error is below 3e-4, with 128 below 3e-5.
  *
- * Nested levels: level l uses every 2^l-th node, so each star can use the coarsest level whose step in
- * magnitude offset is small against its own errors, without building more curves.
+ * Nested levels: level l uses every 2^l-th node, from the finest (level 0, n0 intervals) down to 8 intervals.
+ * Each star uses the coarsest level (of at least 64 intervals) whose step in magnitude offset is small
+ * against its own errors; Z_B refines through the levels until two neighbours agree (cmdLikelihood.ts).
+ * The curves that a level adds to the next coarser one (its "class", see classOf) are built only when
+ * some star or Z_B asks for them.
  */
 import { logMassRatioDensity, type MassRatioDistribution } from './massRatio.js';
 
 const A_EXP = 4;
 const C_LIN = 0.5;
-/** Intervals of the coarsest level. */
+/** Intervals of the finest level when there is one level of resolution (the constructor's `fineLevels`). */
 export const COARSEST_INTERVALS = 64;
+/** Intervals of the coarsest nested level (only compared against, never accepted: Gregory's rule needs n >= 6). */
+export const COARSEST_NESTED_INTERVALS = 8;
 const K25 = 2.5 / Math.LN10;
 
 function offset(q: number): number {
@@ -40,6 +45,7 @@ function offsetSlope(q: number): number {
 export class QGrid {
   /** Intervals at the finest level (a power of two times COARSEST_INTERVALS). */
   readonly n0: number;
+  /** Number of nested levels, from n0 intervals (level 0) down to COARSEST_NESTED_INTERVALS (level nLevels - 1). */
   readonly nLevels: number;
   /** q at node j of the finest level, j = 0..n0. */
   readonly q: Float64Array;
@@ -49,10 +55,17 @@ export class QGrid {
   readonly maxStepMag: Float64Array;
   /** lnWeight[l][j]: log quadrature weight of node j at level l (-Infinity where j is not a level-l node). */
   readonly lnWeight: Float64Array[];
+  /**
+   * A level-free bound on node j's weight, for pruning: ln(7/6 / n0) + ln Jacobian. The weight of node j at
+   * level l is at most lnPrune[j] + l ln 2 (the largest Gregory weight is 7/6 and the step is 2^l / n0).
+   */
+  readonly lnPrune: Float64Array;
 
-  constructor(dist: MassRatioDistribution, nLevels: number) {
-    this.nLevels = nLevels;
-    this.n0 = COARSEST_INTERVALS * (1 << (nLevels - 1));
+  /** `fineLevels` sets the finest resolution: n0 = COARSEST_INTERVALS * 2^(fineLevels - 1). */
+  constructor(dist: MassRatioDistribution, fineLevels: number) {
+    this.n0 = COARSEST_INTERVALS * (1 << (fineLevels - 1));
+    this.nLevels = Math.round(Math.log2(this.n0 / COARSEST_NESTED_INTERVALS)) + 1;
+    const nLevels = this.nLevels;
     const qMin = dist.qMin;
     const s0 = offset(qMin);
     const span = offset(1) - s0 + C_LIN * (1 - qMin);
@@ -97,6 +110,23 @@ export class QGrid {
       }
       this.lnWeight.push(w);
     }
+    this.lnPrune = new Float64Array(n0 + 1);
+    for (let j = 0; j <= n0; j++) this.lnPrune[j] = Math.log(7 / 6 / n0) + lnJac[j];
+  }
+
+  /**
+   * The class of node j: the finest level l whose nodes include j and those of no coarser level, i.e. the
+   * curves that refining from level l + 1 to level l adds. The coarsest level's nodes are all its class.
+   */
+  classOf(j: number): number {
+    let c = 0;
+    while (c < this.nLevels - 1 && j % (2 << c) === 0) c++;
+    return c;
+  }
+
+  /** First node and stride of class c (see classOf). */
+  classNodes(c: number): { first: number; stride: number } {
+    return c === this.nLevels - 1 ? { first: 0, stride: 1 << c } : { first: 1 << c, stride: 2 << c };
   }
 }
 
