@@ -50,6 +50,29 @@ export function cornerPlotSpec(params: CornerParameter[], opts: { panel?: number
   } as TopLevelSpec;
 }
 
+const X_LABELS = { labelAngle: -45, labelAlign: 'right', labelBaseline: 'top' } as const;
+
+/**
+ * Tick values at a round step (1, 2 or 5 x 10^k, two to five per axis) kept at least 10% of the range
+ * away from both ends: panels sit a few pixels apart, and a label at a panel's end runs into its
+ * neighbour's. The x labels are also turned by 45 degrees (see X_LABELS), since a corner plot's narrow
+ * posteriors need five or six digits per label.
+ */
+export function innerTicks(range: [number, number]): { values: number[]; format: string } {
+  const [lo, hi] = range;
+  const w = hi - lo;
+  if (!(w > 0)) return { values: [lo], format: '.4~g' };
+  // The largest round step that puts at least two ticks inside the inner 80% (at most five then).
+  const a = lo + 0.1 * w;
+  const b = hi - 0.1 * w;
+  let step = Math.pow(10, Math.ceil(Math.log10(w)));
+  for (let k = 0; k < 12 && Math.floor(b / step) - Math.ceil(a / step) + 1 < 2; k++) step = [0.5, 0.4, 0.5][k % 3] * step;
+  const values: number[] = [];
+  for (let v = Math.ceil(a / step) * step; v <= b + 1e-12 * w; v += step) values.push(Number(v.toPrecision(12)));
+  const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
+  return { values, format: `.${decimals}f` };
+}
+
 function marginalPanel(p: CornerParameter, range: [number, number], size: number, showX: boolean): object {
   const bins = 30;
   const width = (range[1] - range[0]) / bins || 1;
@@ -61,7 +84,7 @@ function marginalPanel(p: CornerParameter, range: [number, number], size: number
   const bars = counts.map((c, k) => ({ x0: range[0] + k * width, x1: range[0] + (k + 1) * width, c }));
   const [q16, q50, q84] = quantiles(p.draws, [0.16, 0.5, 0.84]);
   const rules = [q16, q50, q84].map((v, k) => ({ v, dash: k === 1 ? 0 : 1 }));
-  const x = { scale: { domain: range, nice: false, zero: false }, axis: showX ? { title: p.label, tickCount: 4, labelFlush: true, labelOverlap: true } : { labels: false, title: null, ticks: false } };
+  const x = { scale: { domain: range, nice: false, zero: false }, axis: showX ? { title: p.label, ...innerTicks(range), ...X_LABELS } : { labels: false, title: null, ticks: false } };
   const layer: object[] = [
     { data: { values: bars }, mark: { type: 'rect', color: FILL_68, opacity: 0.8 }, encoding: { x: { field: 'x0', type: 'quantitative', ...x }, x2: { field: 'x1' }, y: { field: 'c', type: 'quantitative', axis: null }, y2: { datum: 0 } } },
     { data: { values: rules }, mark: { type: 'rule', color: '#222' }, encoding: { x: { field: 'v', type: 'quantitative' }, strokeDash: { field: 'dash', type: 'nominal', scale: { range: [[1, 0], [4, 3]] }, legend: null } } },
@@ -99,8 +122,8 @@ function jointPanel(px: CornerParameter, py: CornerParameter, xr: [number, numbe
       data: { values: rings },
       mark: { type: 'line', interpolate: 'linear-closed', strokeWidth: 0.6, clip: true },
       encoding: {
-        x: { field: 'x', type: 'quantitative', scale: scale(xr), axis: showX ? { title: px.label, tickCount: 4, labelFlush: true, labelOverlap: true } : { labels: false, title: null, ticks: false } },
-        y: { field: 'y', type: 'quantitative', scale: scale(yr), axis: showY ? { title: py.label, tickCount: 4, labelFlush: true, labelOverlap: true } : { labels: false, title: null, ticks: false } },
+        x: { field: 'x', type: 'quantitative', scale: scale(xr), axis: showX ? { title: px.label, ...innerTicks(xr), ...X_LABELS } : { labels: false, title: null, ticks: false } },
+        y: { field: 'y', type: 'quantitative', scale: scale(yr), axis: showY ? { title: py.label, ...innerTicks(yr) } : { labels: false, title: null, ticks: false } },
         order: { field: 'i', type: 'quantitative' },
         detail: { field: 'id', type: 'nominal' },
         fill: { field: 'fill', type: 'nominal', scale: null },
