@@ -14,12 +14,15 @@
  * ratio above 2, 3 such errors below sqrt(10).
  *
  * The start matters: Nelder-Mead from prior draws used to stop in false modes for both solar-metallicity
- * clusters (old-solar at log age 9.94, log posterior ~5,960 against ~7,920 at the truth). The fit now
- * follows its starts down a schedule of error floors (src/pipeline/annealedStart.ts), and all three
- * clusters pass. Each case takes 2-4 minutes of CPU, so this file exceeds the issue's 3-minute budget.
+ * clusters (old-solar at log age 9.94, log posterior ~5,960 against ~7,920 at the truth). The fit follows
+ * a beam of starts down a schedule of error floors (src/pipeline/annealedStart.ts), on subsets of the
+ * stars, and all three clusters pass. With one start (init_starts = 1) and 4 draws for the per-star
+ * results, the file used about 340 s of CPU (756 s wall on a machine running three other jobs) when the
+ * first floor's beam was 4 wide (it is now 8); the issue's budget is 3 minutes, which the 10^4-star fit
+ * alone nearly fills.
  *
- * Binaries are left out (simulated and fitted f_binary = 0): with them one likelihood evaluation now costs
- * 0.35-1.3 s, far beyond a CI budget.
+ * Binaries are left out (simulated and fitted f_binary = 0): with them one likelihood evaluation of 2,000
+ * stars costs about 0.3-0.5 s, far beyond a CI budget.
  */
 import { describe, expect, it } from 'vitest';
 import { runScenario, type Scenario, type ScenarioFit } from '../helpers/fitScenario.js';
