@@ -17,9 +17,8 @@
  * clusters (old-solar at log age 9.94, log posterior ~5,960 against ~7,920 at the truth). The fit follows
  * a beam of starts down a schedule of error floors (src/pipeline/annealedStart.ts), on subsets of the
  * stars, and all three clusters pass. With one start (init_starts = 1) and 4 draws for the per-star
- * results, the file used about 340 s of CPU (756 s wall on a machine running three other jobs) when the
- * first floor's beam was 4 wide (it is now 8); the issue's budget is 3 minutes, which the 10^4-star fit
- * alone nearly fills.
+ * results, the file took 296 s in the full suite on 2 cores (1,071 s before the start search used subsets
+ * of the stars); the issue's budget is 3 minutes, which the 10^4-star fit alone nearly fills.
  *
  * Binaries are left out (simulated and fitted f_binary = 0): with them one likelihood evaluation of 2,000
  * stars costs about 0.3-0.5 s, far beyond a CI budget.
