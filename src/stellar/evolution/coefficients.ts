@@ -35,15 +35,36 @@ function alphaRFormula(a: Float64Array, m: number): number {
   return (a[58] * m ** a[60]) / (a[59] + m ** a[61]);
 }
 
+/**
+ * The JSON tables as (index, polynomial) pairs, read once: a sampler that moves [Fe/H] builds a model at
+ * every call, and walking the JSON objects by their string keys cost more than the polynomials.
+ */
+interface CompiledTable {
+  index: Int32Array;
+  coef: (readonly number[])[];
+}
+
+function compile(tab: PolyTable): CompiledTable {
+  const entries = Object.entries(tab);
+  return { index: Int32Array.from(entries, ([k]) => Number(k)), coef: entries.map(([, c]) => c) };
+}
+
+const A_TABLE = compile(data.hpt2000.a as PolyTable);
+const B_TABLE = compile(data.hpt2000.b as PolyTable);
+const ZAMS_L_TABLE: (readonly number[])[] = Object.values(data.tout1996.luminosity);
+const ZAMS_R_TABLE: (readonly number[])[] = Object.values(data.tout1996.radius);
+
+function fillFrom(t: CompiledTable, zeta: number, out: Float64Array): void {
+  for (let i = 0; i < t.index.length; i++) out[t.index[i]] = poly(t.coef[i], zeta);
+}
+
 export function computeCoefficients(Z: number): Coefficients {
   const zeta = Math.log10(Z / 0.02);
   const sigma = Math.log10(Z);
-  const aTab = data.hpt2000.a as PolyTable;
-  const bTab = data.hpt2000.b as PolyTable;
   const a = new Float64Array(82);
   const b = new Float64Array(58);
-  for (const [k, c] of Object.entries(aTab)) a[Number(k)] = poly(c, zeta);
-  for (const [k, c] of Object.entries(bTab)) b[Number(k)] = poly(c, zeta);
+  fillFrom(A_TABLE, zeta, a);
+  fillFrom(B_TABLE, zeta, b);
 
   // --- HPT2000 Appendix: a_n transformations and explicit definitions ---
   a[11] *= a[14];
@@ -115,7 +136,9 @@ export function computeCoefficients(Z: number): Coefficients {
   b[55] = Math.min(0.99164 - 743.123 * Z ** 2.83, b[55]);
   b[50] = b[55] * b[3];
 
-  const zamsL = Float64Array.from(Object.values(data.tout1996.luminosity), (c) => poly(c, zeta));
-  const zamsR = Float64Array.from(Object.values(data.tout1996.radius), (c) => poly(c, zeta));
+  const zamsL = new Float64Array(ZAMS_L_TABLE.length);
+  for (let i = 0; i < zamsL.length; i++) zamsL[i] = poly(ZAMS_L_TABLE[i], zeta);
+  const zamsR = new Float64Array(ZAMS_R_TABLE.length);
+  for (let i = 0; i < zamsR.length; i++) zamsR[i] = poly(ZAMS_R_TABLE[i], zeta);
   return { Z, zeta, a, b, zamsL, zamsR };
 }

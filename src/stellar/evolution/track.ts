@@ -50,6 +50,15 @@ export class StellarTrack implements MassDerivative {
   readonly he = new CoreHeliumBurning();
   readonly agb = new EarlyAGB();
   private readonly tmp = new Float64Array(3);
+  /**
+   * The last (phase, x) of `dMassDx` and its mass-independent factors (L, and R where R does not depend on
+   * the current mass): RK4 evaluates each midpoint twice and each step end twice (k4 and the next k1),
+   * so half the evaluations reuse them. Any fill clears it.
+   */
+  private memoPhase = 0;
+  private memoX = Number.NaN;
+  private memoL = 0;
+  private memoR = 0;
 
   /** Start a star: its main-sequence and gap timescales (cheap). */
   setMass(model: EvolutionModel, m0: number, eta: number): this {
@@ -59,11 +68,12 @@ export class StellarTrack implements MassDerivative {
     this.tBGB = tBGB(model, m0);
     this.tHook = tHook(model, m0, this.tBGB);
     this.tMS = Math.max(this.tHook, model.xMS * this.tBGB);
+    this.memoX = Number.NaN;
     return this;
   }
 
   fillMainSequence(): this {
-    this.ms.fill(this.model, this.m0);
+    this.ms.fill(this.model, this.m0, this.tBGB, this.tHook);
     return this;
   }
 
@@ -72,6 +82,7 @@ export class StellarTrack implements MassDerivative {
     this.aH = hydrogenRate(this.m0);
     this.gb.fill(this.model, this.m0, this.tBGB, this.aH);
     this.tHeI = this.gb.tHeI;
+    this.memoX = Number.NaN;
     return this;
   }
 
@@ -85,6 +96,7 @@ export class StellarTrack implements MassDerivative {
     const rEnd = gb.hasGB ? rGB(model, mEndHG, gb.lBGB) : rHeIHighMass(model, m0, mEndHG, gb.lHeI);
     const mcEnd = m0 < model.mHeF ? gb.mcLBase : gb.hasGB ? gb.mcBase : gb.mcTip;
     this.hg.fill(m0, this.tMS, this.tBGB, Math.log10(lTMS(model, m0)), Math.log10(rTMS(model, m0)), lEnd, rEnd, mcEnd);
+    this.memoX = Number.NaN;
     return this;
   }
 
@@ -99,6 +111,7 @@ export class StellarTrack implements MassDerivative {
     this.tBAGB = this.tHeI + this.he.tHe;
     this.agb.fill(model, m0, this.tBAGB, this.he.lBAGB, this.he.mcBAGB);
     this.tEnd = this.agb.tEnd;
+    this.memoX = Number.NaN;
     return this;
   }
 
@@ -190,29 +203,41 @@ export class StellarTrack implements MassDerivative {
     const model = this.model;
     const Z = model.Z;
     const eta = this.eta;
+    const fresh = x !== this.memoX || phase !== this.memoPhase;
+    this.memoPhase = phase;
+    this.memoX = x;
     switch (phase) {
       case Phase.HertzsprungGap: {
-        this.hg.at(x, this.tmp);
-        const rate = massLossRate(Z, eta, exp10(this.tmp[0]), exp10(this.tmp[1]), m, false);
+        if (fresh) {
+          this.hg.at(x, this.tmp);
+          this.memoL = exp10(this.tmp[0]);
+          this.memoR = exp10(this.tmp[1]);
+        }
+        const rate = massLossRate(Z, eta, this.memoL, this.memoR, m, false);
         return -1e6 * rate * (this.tBGB - this.tMS);
       }
       case Phase.GiantBranch: {
         const gb = this.gb;
         const dmc = gb.mcLTip - gb.mcLBase;
-        const l = gb.law.luminosity(gb.mcLBase + x * dmc);
+        if (fresh) this.memoL = gb.law.luminosity(gb.mcLBase + x * dmc);
+        const l = this.memoL;
         const rate = massLossRate(Z, eta, l, rGB(model, m, l), m, false);
         return (-1e6 * rate * dmc) / (gb.law.A * l);
       }
       case Phase.CoreHeliumBurning: {
         const he = this.he;
-        const l = he.luminosity(x);
-        const rate = massLossRate(Z, eta, l, he.radius(model, x, l), m, false);
+        if (fresh) {
+          this.memoL = he.luminosity(x);
+          this.memoR = he.radius(model, x, this.memoL);
+        }
+        const rate = massLossRate(Z, eta, this.memoL, this.memoR, m, false);
         return -1e6 * rate * he.tHe;
       }
       case Phase.EarlyAGB: {
         const agb = this.agb;
         const dmc = agb.mcCOEnd - agb.mcCOStart;
-        const l = agb.law.luminosity(agb.mcCOStart + x * dmc);
+        if (fresh) this.memoL = agb.law.luminosity(agb.mcCOStart + x * dmc);
+        const l = this.memoL;
         const rate = massLossRate(Z, eta, l, rAGB(model, m, l), m, true);
         return (-1e6 * rate * dmc) / (A_HE * l);
       }
