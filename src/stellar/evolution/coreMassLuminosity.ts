@@ -16,6 +16,14 @@ export function hydrogenRate(m: number): number {
   return exp10(Math.max(-4.8, Math.min(-5.7 + 0.8 * m, -4.1 + 0.14 * m)));
 }
 
+/**
+ * Below M_HeF (and below 2.38 Msun, where 500 + 1.75e4 M^0.6 stays under the floor of 3e4 in B) the law's
+ * p, q, B and D, and so M_x and L_x, do not depend on the mass: they are computed once per model and
+ * reused, which spares three powers per star on the giant branch and the AGB of an old isochrone.
+ */
+const FLOOR_B_MASS = 2.38;
+const lowMass = { model: null as EvolutionModel | null, D: 0, mx: 0, lx: 0, bTerm: 0 };
+
 export class CoreLaw {
   p = 6;
   q = 3;
@@ -35,6 +43,16 @@ export class CoreLaw {
   setMass(model: EvolutionModel, m: number): this {
     const mHeF = model.mHeF;
     const d0 = model.logD0;
+    if (m <= mHeF && m < FLOOR_B_MASS) {
+      if (lowMass.model !== model) this.lowMassConstants(model);
+      this.p = 6;
+      this.q = 3;
+      this.D = lowMass.D;
+      this.B = 3.0e4;
+      this.mx = lowMass.mx;
+      this.lx = lowMass.lx;
+      return this;
+    }
     let logD: number;
     if (m <= mHeF) {
       this.p = 6;
@@ -62,6 +80,19 @@ export class CoreLaw {
     return this;
   }
 
+  /** Fill `lowMass` for this model with the same expressions as the general path (p = 6, q = 3, B = 3e4). */
+  private lowMassConstants(model: EvolutionModel): void {
+    const D = exp10(model.logD0);
+    const B = 3.0e4;
+    const mx = pow(B / D, 1 / (6 - 3));
+    const lx = D * pow(mx, 6);
+    lowMass.D = D;
+    lowMass.mx = mx;
+    lowMass.lx = lx;
+    lowMass.bTerm = pow(B / lx, (3 - 1) / 3);
+    lowMass.model = model;
+  }
+
   /** Start the integral of eq. (39) at (t0, L0) with growth constant A (eqs. 40-42). */
   start(A: number, t0: number, l0: number): this {
     const { p, q, B, D } = this;
@@ -71,7 +102,9 @@ export class CoreLaw {
     if (l0 <= this.lx) {
       this.tInf1 = t0 + (1 / ((p - 1) * A * D)) * pow(D / l0, (p - 1) / p);
       this.tX = this.tInf1 - (this.tInf1 - t0) * pow(l0 / this.lx, (p - 1) / p);
-      this.tInf2 = this.tX + (1 / ((q - 1) * A * B)) * pow(B / this.lx, (q - 1) / q);
+      // The same power as lowMass.bTerm whenever its inputs are the same.
+      const bTerm = q === 3 && B === 3.0e4 && this.lx === lowMass.lx ? lowMass.bTerm : pow(B / this.lx, (q - 1) / q);
+      this.tInf2 = this.tX + (1 / ((q - 1) * A * B)) * bTerm;
     } else {
       // Starting above the crossover: only the B branch is ever used.
       this.tInf1 = t0;
