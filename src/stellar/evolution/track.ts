@@ -100,8 +100,12 @@ export class StellarTrack implements MassDerivative {
     return this;
   }
 
-  /** Core helium burning and the early AGB, given the mass at helium ignition. Needs `fillGiant`. */
-  fillHelium(mHeI: number): this {
+  /**
+   * Core helium burning and the early AGB, given the mass at helium ignition. Needs `fillGiant`. Callers
+   * that need nothing past core helium burning pass withAGB = false (the AGB fill costs half a dozen
+   * powers); `tEnd` is then NaN.
+   */
+  fillHelium(mHeI: number, withAGB = true): this {
     const model = this.model;
     const m0 = this.m0;
     const gb = this.gb;
@@ -109,8 +113,10 @@ export class StellarTrack implements MassDerivative {
     const rHeI = gb.hasGB ? rGB(model, mHeI, gb.lHeI) : rHeIHighMass(model, m0, mHeI, gb.lHeI);
     this.he.fill(model, m0, mHeI, this.tBGB, this.tHeI, gb.lHeI, gb.mcTip, rHeI);
     this.tBAGB = this.tHeI + this.he.tHe;
-    this.agb.fill(model, m0, this.tBAGB, this.he.lBAGB, this.he.mcBAGB);
-    this.tEnd = this.agb.tEnd;
+    if (withAGB) {
+      this.agb.fill(model, m0, this.tBAGB, this.he.lBAGB, this.he.mcBAGB);
+      this.tEnd = this.agb.tEnd;
+    } else this.tEnd = Number.NaN;
     this.memoX = Number.NaN;
     return this;
   }

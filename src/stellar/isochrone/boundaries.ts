@@ -104,12 +104,12 @@ export function earlyBoundaries(model: EvolutionModel, tMyr: number, eta: number
  */
 export function phaseIntervals(model: EvolutionModel, tMyr: number, eta: number, early: EarlyBoundaries, losses: MassLossInterpolant, mUpper: number): PhaseInterval[] {
   const { mTMS, mBGB, mGBEnd, mHeI } = early;
-  const heliumTrack = (m: number): StellarTrack => {
+  const heliumTrack = (m: number, withAGB: boolean): StellarTrack => {
     const tr = scratch.setMass(model, m, eta).fillGiant();
-    return tr.fillHelium(losses.massAtHeI(m, tr.gb.hasGB));
+    return tr.fillHelium(losses.massAtHeI(m, tr.gb.hasGB), withAGB);
   };
-  const mBAGB = crossing((m) => heliumTrack(m).tBAGB - tMyr, mHeI, mUpper);
-  const mEnd = crossing((m) => heliumTrack(m).tEnd - tMyr, mBAGB, mUpper);
+  const mBAGB = crossing((m) => heliumTrack(m, false).tBAGB - tMyr, mHeI, mUpper);
+  const mEnd = crossing((m) => heliumTrack(m, true).tEnd - tMyr, mBAGB, mUpper);
   const list: PhaseInterval[] = [
     { phase: Phase.MainSequence, mLo: MIN_MASS, mHi: mTMS },
     { phase: Phase.HertzsprungGap, mLo: mTMS, mHi: mBGB },

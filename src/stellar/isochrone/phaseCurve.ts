@@ -196,7 +196,7 @@ export class PhaseCurve {
     const losses = this.losses;
     const tr = this.track.setMass(this.model, m, this.eta).fillGiant();
     if (phase === Phase.HertzsprungGap) tr.fillGap(losses.massEndHG(m));
-    else if (phase !== Phase.GiantBranch) tr.fillHelium(losses.massAtHeI(m, tr.gb.hasGB));
+    else if (phase !== Phase.GiantBranch) tr.fillHelium(losses.massAtHeI(m, tr.gb.hasGB), phase === Phase.EarlyAGB);
     const x = tr.progressAt(phase, this.tMyr);
     const mass = m - losses.lost(phase, m, x);
     const fraction = tr.stateAt(phase, x, mass, this.out);
@@ -239,7 +239,7 @@ export class PhaseCurve {
     const tr = this.track;
     const gap = (m: number, which: number): number => {
       tr.setMass(this.model, m, this.eta).fillGiant();
-      tr.fillHelium(this.losses.massAtHeI(m, tr.gb.hasGB));
+      tr.fillHelium(this.losses.massAtHeI(m, tr.gb.hasGB), false);
       const tau = tr.progressAt(Phase.CoreHeliumBurning, this.tMyr);
       return tau - (which === 0 ? tr.he.tauX : tr.he.tauY);
     };
