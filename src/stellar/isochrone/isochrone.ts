@@ -375,17 +375,20 @@ export function isochrone(logAgeYr: number, feh: number, options: IsochroneOptio
   return assemble(heads, logAgeYr, feh, alphaFe, eta, bands, photometry);
 }
 
+/** Node order of the last build, reused (no allocation per build). */
+let order = new Int32Array(1024);
+
 function assemble(heads: number[], logAgeYr: number, feh: number, alphaFe: number, eta: number, bands: readonly BandId[], photometry: PhotometryModel): Isochrone {
   // Order, dropping a phase's last node where the next phase starts at the very same point.
-  const order: number[] = [];
+  if (order.length < store.n) order = new Int32Array(Math.max(store.n, 2 * order.length));
+  let n = 0;
   for (const head of heads) {
-    if (order.length > 0) {
-      const last = order[order.length - 1];
-      if (Math.abs(store.logL[last] - store.logL[head]) < 1e-7 && Math.abs(store.logTeff[last] - store.logTeff[head]) < 1e-7) order.pop();
+    if (n > 0) {
+      const last = order[n - 1];
+      if (Math.abs(store.logL[last] - store.logL[head]) < 1e-7 && Math.abs(store.logTeff[last] - store.logTeff[head]) < 1e-7) n--;
     }
-    for (let k = head; k !== -1; k = store.next[k]) order.push(k);
+    for (let k = head; k !== -1; k = store.next[k]) order[n++] = k;
   }
-  const n = order.length;
   const massInitial = new Float64Array(n);
   const massCurrent = new Float64Array(n);
   const phase = new Uint8Array(n);
@@ -394,16 +397,25 @@ function assemble(heads: number[], logAgeYr: number, feh: number, alphaFe: numbe
   const logTeff = new Float64Array(n);
   const logg = new Float64Array(n);
   const absMag = bands.map(() => new Float64Array(n));
+  const { m0, mass, coordinate } = store;
+  const sPhase = store.phase;
+  const sLogL = store.logL;
+  const sLogTeff = store.logTeff;
+  const sLogg = store.logg;
   for (let i = 0; i < n; i++) {
     const k = order[i];
-    massInitial[i] = store.m0[k];
-    massCurrent[i] = store.mass[k];
-    phase[i] = store.phase[k];
-    phaseCoord[i] = store.phase[k] + PHASE_GAP * Math.min(1, Math.max(0, store.coordinate[k]));
-    logL[i] = store.logL[k];
-    logTeff[i] = store.logTeff[k];
-    logg[i] = store.logg[k];
-    for (let j = 0; j < bands.length; j++) absMag[j][i] = store.mags[j][k];
+    massInitial[i] = m0[k];
+    massCurrent[i] = mass[k];
+    phase[i] = sPhase[k];
+    phaseCoord[i] = sPhase[k] + PHASE_GAP * Math.min(1, Math.max(0, coordinate[k]));
+    logL[i] = sLogL[k];
+    logTeff[i] = sLogTeff[k];
+    logg[i] = sLogg[k];
+  }
+  for (let j = 0; j < bands.length; j++) {
+    const from = store.mags[j];
+    const to = absMag[j];
+    for (let i = 0; i < n; i++) to[i] = from[order[i]];
   }
   return {
     logAgeYr,

@@ -89,12 +89,16 @@ export class MassLossInterpolant {
   private count = new Int32Array(8);
   private pieces = 0;
   private readonly w = new Float64Array(16);
+  /** The mass and piece of the weights in `w`: one star asks for several phases in a row. */
+  private wMass = Number.NaN;
+  private wPiece = 0;
 
   /** Integrate the reference tracks over [mLo, mHi]. */
   build(model: EvolutionModel, eta: number, mLo: number, mHi: number): void {
     const breaks = massBreaks(model).filter((b) => b > mLo * (1 + 1e-9) && b < mHi * (1 - 1e-9));
     const edges = [mLo, ...breaks, mHi];
     this.pieces = 0;
+    this.wMass = Number.NaN;
     let used = 0;
     for (let s = 0; s + 1 < edges.length; s++) {
       const a = edges[s];
@@ -119,6 +123,14 @@ export class MassLossInterpolant {
 
   /** Barycentric weights of the piece containing m0 into `this.w`; returns the piece index. */
   private weights(m0: number): number {
+    if (m0 === this.wMass) return this.wPiece;
+    const p = this.computeWeights(m0);
+    this.wMass = m0;
+    this.wPiece = p;
+    return p;
+  }
+
+  private computeWeights(m0: number): number {
     let p = 0;
     while (p < this.pieces - 1 && m0 >= this.hi[p]) p++;
     const k = this.count[p];

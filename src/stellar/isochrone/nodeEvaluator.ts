@@ -21,8 +21,10 @@ import { CORE_MASS, FRACTION, LOG_L, LOG_R, MASS, PhaseCurve, SPACING, STATE_WID
  * barely changes), while near the turnoff the coordinate follows tau, i.e. the same evolutionary point.
  * It rises strictly with mass along an isochrone (both tau and h do, and h < 1) and reaches 1 at tau = 1.
  */
+const LN_1000 = Math.log(1000);
+
 export function mainSequenceCoordinate(m0: number, tau: number): number {
-  const h = Math.log(m0 / 0.1) / Math.log(1000);
+  const h = Math.log(m0 / 0.1) / LN_1000;
   const w = tau * tau;
   return (1 - w) * h + w;
 }
