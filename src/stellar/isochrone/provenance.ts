@@ -27,7 +27,17 @@ export function builtinCaveats(alphaFe: number, eta: number = DEFAULT_REIMERS_ET
   ];
 }
 
-/** The built-in model's provenance; with the built-in photometry, its caveats are appended. */
+/** Caveats of the last (alphaFe, eta): every isochrone of a fit asks for the same ones. */
+let lastCaveats: { alphaFe: number; eta: number; caveats: readonly string[] } | null = null;
+
+function caveatsFor(alphaFe: number, eta: number): readonly string[] {
+  if (!lastCaveats || !Object.is(lastCaveats.alphaFe, alphaFe) || !Object.is(lastCaveats.eta, eta)) {
+    lastCaveats = { alphaFe, eta, caveats: builtinCaveats(alphaFe, eta) };
+  }
+  return lastCaveats.caveats;
+}
+
+/** The built-in model's provenance (a fresh object per call); with the built-in photometry, its caveats are appended. */
 export function builtinProvenance(alphaFe: number, photometry: PhotometryModel, eta: number = DEFAULT_REIMERS_ETA): ModelProvenance {
   const builtin = photometry === builtinPhotometry();
   return {
@@ -36,6 +46,6 @@ export function builtinProvenance(alphaFe: number, photometry: PhotometryModel, 
     solarZ: MODEL_SOLAR_Z,
     alphaFe,
     bands: { ...photometry.provenance },
-    caveats: [...builtinCaveats(alphaFe, eta), ...(builtin ? PHOTOMETRY_CAVEATS : [])],
+    caveats: [...caveatsFor(alphaFe, eta), ...(builtin ? PHOTOMETRY_CAVEATS : [])],
   };
 }
