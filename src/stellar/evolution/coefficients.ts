@@ -61,8 +61,11 @@ function fillFrom(t: CompiledTable, zeta: number, out: Float64Array): void {
 export function computeCoefficients(Z: number): Coefficients {
   const zeta = Math.log10(Z / 0.02);
   const sigma = Math.log10(Z);
-  const a = new Float64Array(82);
-  const b = new Float64Array(58);
+  // One backing store for the four tables (a new model is built whenever a sampler moves [Fe/H]).
+  const nL = ZAMS_L_TABLE.length;
+  const store = new ArrayBuffer(8 * (82 + 58 + nL + ZAMS_R_TABLE.length));
+  const a = new Float64Array(store, 0, 82);
+  const b = new Float64Array(store, 8 * 82, 58);
   fillFrom(A_TABLE, zeta, a);
   fillFrom(B_TABLE, zeta, b);
 
@@ -136,9 +139,9 @@ export function computeCoefficients(Z: number): Coefficients {
   b[55] = Math.min(0.99164 - 743.123 * Z ** 2.83, b[55]);
   b[50] = b[55] * b[3];
 
-  const zamsL = new Float64Array(ZAMS_L_TABLE.length);
+  const zamsL = new Float64Array(store, 8 * (82 + 58), nL);
   for (let i = 0; i < zamsL.length; i++) zamsL[i] = poly(ZAMS_L_TABLE[i], zeta);
-  const zamsR = new Float64Array(ZAMS_R_TABLE.length);
+  const zamsR = new Float64Array(store, 8 * (82 + 58 + nL), ZAMS_R_TABLE.length);
   for (let i = 0; i < zamsR.length; i++) zamsR[i] = poly(ZAMS_R_TABLE[i], zeta);
   return { Z, zeta, a, b, zamsL, zamsR };
 }
