@@ -19,10 +19,10 @@
  *
  * Why the tip fails at [Fe/H] = -1.0 (checked against the HPT2000 Appendix, not a defect of ours): the tip's
  * luminosity is right (log L = 3.386, M_bol = -3.73, within 0.11 of Lee, Freedman & Madore's bolometric
- * relation; isochrone.test.ts), its temperature is not. At Z = 0.0020 eq. (46) with the Appendix's b1-b7
- * gives R_GB = 193 Rsun at the tip (current mass 0.565 Msun), Teff = 2917 K; the isochrone has 2918 K, and a
- * separate evaluation of eq. (46) by hand with the authors' own data arrays (SSE zdata) gives the same, so
- * code and coefficient data are as published. The cause is the Appendix's b2 = min(max(10^(-4.6739 -
+ * relation as recalled in isochrone.test.ts), its temperature is not. At Z = 0.0020 eq. (46) with the
+ * Appendix's b1-b7 gives R_GB = 193 Rsun at the tip (current mass 0.565 Msun), Teff = 2917 K, in a separate
+ * evaluation outside this code with b4-b7 read against the authors' own data arrays (SSE zdata) and b1-b3
+ * against the Appendix's formulae; the isochrone has 2918 K. Code and coefficient data are as published. The cause is the Appendix's b2 = min(max(10^(-4.6739 -
  * 0.9394 sigma), -0.04167 + 55.67 Z), ...): the linear floor takes over at Z = 0.00100 ([Fe/H] = -1.30) and
  * grows five-fold by Z = 0.0020 (0.0140 -> 0.0697; the power law alone would give 0.0073), while b3 is still
  * near its maximum (0.971 at Z = 0.00103, 0.925 at 0.0020, 0.792 at 0.004). The term b2 L^b3 grows from 27 to
