@@ -2,10 +2,9 @@
  * Logarithms of normal probabilities that stay accurate far in the tails. The segment integrals of the
  * likelihood need log(Phi(hi) - Phi(lo)) for arguments anywhere from -40 to +40: a star far from a segment's
  * foot point must still get a finite, correct log-density (never log(0) = -Infinity, which would be a
- * fake "impossible"). erfc and its scaled form erfcx come from @stdlib.
+ * fake "impossible"). erfc and its scaled form erfcx come from fastErfc.ts (a table built from @stdlib's).
  */
-import erfc from '@stdlib/math-base-special-erfc';
-import erfcx from '@stdlib/math-base-special-erfcx';
+import { erfcxNonNegative as erfcx, fastErfc as erfc } from './fastErfc.js';
 
 const SQRT1_2 = Math.SQRT1_2;
 const LN_HALF = -Math.LN2;
