@@ -30,10 +30,26 @@
  *    extrapolated and steep.
  *
  * In real bands the criterion is not met even outside these windows, and a second test keeps that visible
- * as a known failure: the fits' giant-branch radius moves the cool giant branch and early AGB in Teff by up
- * to a few 0.001 dex per 0.01 dex of [Fe/H] (its coefficients b1-b3 switch branches in Z), and there the
- * B band changes by 20-40 mag per dex of Teff, so B moves by up to about 0.25 mag per 0.01 dex of [Fe/H]
- * (and 0.8 mag beyond Z = 0.03). The log Teff limit above corresponds to G-K colours, not to M giants.
+ * as a known failure. The cause is the published giant-branch and AGB radii, not our code, our coefficient
+ * data, the phase coordinate or the colour relations:
+ *  - at the worst places the star's luminosity hardly moves (dlog L <= 0.0007 per 0.01 dex at fixed phase
+ *    coordinate, 0.002 mag in M_bol: the coordinate maps like to like) but its Teff does: dlog Teff = +0.00522
+ *    at log age 10, [Fe/H] -0.80 (early AGB, 3035 K) and -0.00672 at [Fe/H] -1.30 (early AGB, 3825 K) per
+ *    0.01 dex. HPT2000 eq. (74) alone (R_AGB, which shares b1-b3 with R_GB of eq. 46), evaluated at the node's
+ *    L and current mass with the coefficients of both Z, gives +0.00511 and -0.00651, that is 97-98 per cent
+ *    of it; the rest is the winds' answer to the new radius. The coefficients switch branches in Z: b2's floor
+ *    -0.04167 + 55.67 Z takes over at Z = 0.00100 ([Fe/H] -1.30) and b1 leaves its 0.54 cap at Z = 0.00277
+ *    ([Fe/H] -0.86); near them a cool giant's Teff moves by up to 0.7 dex per dex of [Fe/H];
+ *  - the photometry is steep there because cool giants are: 48 mag per dex of Teff in B at 3035 K, 25 at
+ *    3825 K (BC_V alone changes by 40-50 mag per dex below 3300 K); at fixed Teff and log g the built-in
+ *    calibration changes by at most 0.022 mag per 0.01 dex of [Fe/H] anywhere on these isochrones (B, at the
+ *    blend of Ramirez & Melendez's [Fe/H] bins at -1.5);
+ *  - it is a slope, not a cliff: over 0.001 dex the change is a tenth of that over 0.01 dex (measured 0.097-
+ *    0.099), which a test below checks.
+ * Worst over a scan (log age 8.5, 9.0, 9.5, 9.8, 10.0, 10.1; [Fe/H] -2.3 to +0.15 in 0.05 dex steps): 0.345
+ * (B), 0.334 (V) and 0.266 mag (I) per 0.01 dex of [Fe/H], at [Fe/H] -0.85 on the early AGB near 2900 K;
+ * per 0.01 dex of age the worst is 0.075 mag (B). The log Teff limit above corresponds to G-K colours, not to
+ * M giants. Passing needs a giant-branch radius without these switches in Z: other physics than HPT2000's.
  */
 import { describe, expect, it } from 'vitest';
 import mt19937 from '@stdlib/random-base-mt19937';
@@ -196,36 +212,65 @@ describe('smoothness in the built-in photometry\'s bands (known failure on the c
     [10.0, -0.8],
     [9.5, -0.05],
   ];
-  it.fails('B, V and I change by at most 0.05 mag per 0.01 dex of [Fe/H] at fixed phase coordinate outside the steep windows', () => {
+
+  interface BandChange {
+    worst: number;
+    where: string;
+  }
+
+  /** Largest change of B, V or I at fixed phase coordinate between [Fe/H] and [Fe/H] + step, outside the steep windows. */
+  function worstBandChange(age: number, feh: number, step: number): BandChange {
     let worst = 0;
     let where = '';
-    for (const [age, feh] of points) {
-      const a = isochrone(age, feh, real);
-      const b = isochrone(age, feh + STEP, real);
-      const Za = fehToZ(feh);
-      const n = b.phaseCoord.length;
-      for (let k = 0; k < a.phaseCoord.length; k++) {
-        const c = a.phaseCoord[k];
-        if (c < b.phaseCoord[0] || c > b.phaseCoord[n - 1] || steepWindow(a, k, Za)) continue;
-        let lo = 0;
-        let hi = n - 1;
-        while (hi - lo > 1) {
-          const mid = (lo + hi) >> 1;
-          if (b.phaseCoord[mid] <= c) lo = mid;
-          else hi = mid;
-        }
-        if (b.phase[lo] !== a.phase[k] || b.phase[hi] !== a.phase[k]) continue;
-        const s = (c - b.phaseCoord[lo]) / (b.phaseCoord[hi] - b.phaseCoord[lo]);
-        for (let j = 0; j < bands.length; j++) {
-          const d = Math.abs(b.absMag[j][lo] + s * (b.absMag[j][hi] - b.absMag[j][lo]) - a.absMag[j][k]);
-          if (d > worst) {
-            worst = d;
-            where = `${bands[j]}, log age ${age}, [Fe/H] ${feh} -> ${feh + STEP}, phase ${a.phase[k]}, Teff ${(10 ** a.logTeff[k]).toFixed(0)} K`;
-          }
+    const a = isochrone(age, feh, real);
+    const b = isochrone(age, feh + step, real);
+    const Za = fehToZ(feh);
+    const n = b.phaseCoord.length;
+    for (let k = 0; k < a.phaseCoord.length; k++) {
+      const c = a.phaseCoord[k];
+      if (c < b.phaseCoord[0] || c > b.phaseCoord[n - 1] || steepWindow(a, k, Za)) continue;
+      let lo = 0;
+      let hi = n - 1;
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if (b.phaseCoord[mid] <= c) lo = mid;
+        else hi = mid;
+      }
+      if (b.phase[lo] !== a.phase[k] || b.phase[hi] !== a.phase[k]) continue;
+      const s = (c - b.phaseCoord[lo]) / (b.phaseCoord[hi] - b.phaseCoord[lo]);
+      const dLogTeff = b.logTeff[lo] + s * (b.logTeff[hi] - b.logTeff[lo]) - a.logTeff[k];
+      for (let j = 0; j < bands.length; j++) {
+        const d = Math.abs(b.absMag[j][lo] + s * (b.absMag[j][hi] - b.absMag[j][lo]) - a.absMag[j][k]);
+        if (d > worst) {
+          worst = d;
+          where = `${bands[j]}, log age ${age}, [Fe/H] ${feh} -> ${feh + step}, phase ${a.phase[k]}, Teff ${(10 ** a.logTeff[k]).toFixed(0)} K, dlogTeff ${dLogTeff.toFixed(5)}`;
         }
       }
     }
-    process.stdout.write(`[smoothness, real bands] worst ${worst.toFixed(3)} mag (${where})\n`);
-    expect(worst).toBeLessThanOrEqual(MAX_DMBOL);
+    return { worst, where };
+  }
+
+  // No cliff: a magnitude that is continuous in [Fe/H] changes about ten times less over a ten times smaller
+  // step, while a jump of size J shows as J at both steps. The limit, a fifth of the 0.01 dex change plus
+  // 0.005 mag, leaves a factor 2 for the slope changing within the step and for the linear interpolation
+  // between nodes (spaced <= 0.01 mag); a jump larger than 0.2 x the 0.01 dex change + 0.005 (at most 0.056 mag
+  // at these points) fails it. Measured: 0.097-0.099.
+  it('B, V and I are continuous in [Fe/H]: the change over 0.001 dex is at most a fifth of that over 0.01 dex', () => {
+    for (const [age, feh] of points) {
+      const coarse = worstBandChange(age, feh, STEP);
+      const fine = worstBandChange(age, feh, STEP / 10);
+      process.stdout.write(`[smoothness, real bands] log age ${age}, [Fe/H] ${feh}: worst ${coarse.worst.toFixed(4)} mag over ${STEP} dex, ${fine.worst.toFixed(4)} over ${STEP / 10} dex\n`);
+      expect(fine.worst, fine.where).toBeLessThanOrEqual(0.2 * coarse.worst + 0.005);
+    }
+  });
+
+  it.fails('B, V and I change by at most 0.05 mag per 0.01 dex of [Fe/H] at fixed phase coordinate outside the steep windows', () => {
+    let worst: BandChange = { worst: 0, where: '' };
+    for (const [age, feh] of points) {
+      const w = worstBandChange(age, feh, STEP);
+      if (w.worst > worst.worst) worst = w;
+    }
+    process.stdout.write(`[smoothness, real bands] worst ${worst.worst.toFixed(3)} mag (${worst.where})\n`);
+    expect(worst.worst).toBeLessThanOrEqual(MAX_DMBOL);
   });
 });
