@@ -41,7 +41,7 @@ const boundaryRules = STAGES.map((stage) => {
 });
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'bench/results.json', 'runs/**', '**/*.js', '!eslint.config.js'] },
+  { ignores: ['dist/**', 'node_modules/**', '.prof/**', 'bench/results.json', 'runs/**', '**/*.js', '!eslint.config.js'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

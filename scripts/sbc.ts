@@ -10,14 +10,17 @@
  * freedom; p-value from the closed-form survival function for even degrees of freedom, Abramowitz & Stegun
  * 26.4.21), and the coverage of the central 68% and 95% intervals with their binomial standard errors.
  *
- *   npm run validate -- [--n 100] [--stars 300] [--steps 200] [--out validation/sbc] [--resume]
+ *   npm run validate -- [--n 100] [--stars 300] [--steps 200] [--auto] [--out validation/sbc] [--resume]
  *
  * Writes OUT.json (every replication, rewritten atomically after each one), OUT.txt (the figures) and
  * OUT.svg (the rank histograms). With --resume, the replications already in OUT.json are kept and the run
  * goes on from the next one; replication i always has the same truth and seed, so a resumed run is the
  * same run.
  * Thinning: 109 draws spread over ~4,000 correlated ones; ranks from correlated draws would pile up at the
- * ends, so the run length must be many autocorrelation times (the script reports the mean tau).
+ * ends, so the run length must be many autocorrelation times (the script reports the mean tau). Each
+ * replication's largest R-hat is kept and the figures say how many ended above 1.01: ranks from chains
+ * that have not mixed measure the run length, not the calibration. With --auto the fits use the sampler's
+ * automatic stop (50 tau, checked every 100 steps) with --steps as the cap, instead of a fixed length.
  */
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -60,10 +63,14 @@ interface Replication {
   inside68: Record<Name, boolean>;
   inside95: Record<Name, boolean>;
   tauMax: number;
+  /** Largest R-hat over the parameters at the end (absent in files written before it was recorded). */
+  rhatMax?: number;
+  /** Steps taken. */
+  steps?: number;
   seconds: number;
 }
 
-async function replicate(i: number, seed: number, stars: number, steps: number, rng: SamplerRng): Promise<Replication> {
+async function replicate(i: number, seed: number, stars: number, steps: number, auto: boolean, rng: SamplerRng): Promise<Replication> {
   const t0 = performance.now();
   const truth = Object.fromEntries(NAMES.map((n) => [n, PRIOR[n][0] + (PRIOR[n][1] - PRIOR[n][0]) * rng.uniform()])) as Record<Name, number>;
   const dir = mkdtempSync(join(tmpdir(), 'coeval-sbc-'));
@@ -83,7 +90,7 @@ async function replicate(i: number, seed: number, stars: number, steps: number, 
       .join('');
     const phot = ['B', 'V', 'I'].map((b) => `[photometry.${b}]\nmag = "${b}"\nerr = "${b}_err"\n`).join('');
     const priors = NAMES.map((n) => `${n} = { kind = "uniform", min = ${PRIOR[n][0]}, max = ${PRIOR[n][1]} }`).join('\n');
-    const text = `[catalogue]\npath = "c.csv"\nid = "id"\n${phot}${window}[priors]\n${priors}\nf_binary = 0\nsigma_extra = 0\n[sampler]\nseed = ${seed}\nensembles = 2\nwalkers = 12\nstop = "fixed"\nsteps = ${steps}\nworkers = 2\ninit_starts = 2\n`;
+    const text = `[catalogue]\npath = "c.csv"\nid = "id"\n${phot}${window}[priors]\n${priors}\nf_binary = 0\nsigma_extra = 0\n[sampler]\nseed = ${seed}\nensembles = 2\nwalkers = 12\n${auto ? 'stop = "auto"\ncheck_every = 100\n' : 'stop = "fixed"\n'}steps = ${steps}\nworkers = 2\ninit_starts = 2\n`;
     const loaded = parseConfigText(text, { file: join(dir, 'fit.toml'), baseDir: dir });
     const r = await fit({ loaded, runDir: join(dir, 'run'), report: false, starDraws: 1 });
     const d = r.diagnosis.diagnosis;
@@ -103,7 +110,8 @@ async function replicate(i: number, seed: number, stars: number, steps: number, 
       inside95[n] = truth[n] >= q(0.025) && truth[n] <= q(0.975);
     });
     const tauMax = Math.max(...d.parameters.map((p) => p.tau.tau));
-    return { i, truth, rank, inside68, inside95, tauMax, seconds: (performance.now() - t0) / 1000 };
+    const rhatMax = Math.max(...d.parameters.map((p) => p.rhat));
+    return { i, truth, rank, inside68, inside95, tauMax, rhatMax, steps: d.totalSteps, seconds: (performance.now() - t0) / 1000 };
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
@@ -112,6 +120,12 @@ async function replicate(i: number, seed: number, stars: number, steps: number, 
 function figures(reps: Replication[]): { text: string; svg: string } {
   const n = reps.length;
   const lines = [`simulation-based calibration: ${n} replications, ${L} draws per posterior, ${BINS} bins; mean tau_max ${(reps.reduce((s, r) => s + r.tauMax, 0) / n).toFixed(1)} steps`];
+  const withRhat = reps.filter((r) => r.rhatMax !== undefined);
+  if (withRhat.length > 0) {
+    const high = withRhat.filter((r) => !((r.rhatMax as number) < 1.01));
+    const largest = Math.max(...withRhat.map((r) => r.rhatMax as number));
+    lines.push(`R-hat at the end: ${high.length} of ${withRhat.length} replications have a parameter at R-hat >= 1.01 (largest ${largest.toFixed(3)}); their ranks are included above`);
+  }
   const panels: string[] = [];
   NAMES.forEach((name, j) => {
     const counts = new Array<number>(BINS).fill(0);
@@ -136,7 +150,7 @@ function figures(reps: Replication[]): { text: string; svg: string } {
 }
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { n: { type: 'string', default: '100' }, stars: { type: 'string', default: '300' }, steps: { type: 'string', default: '200' }, out: { type: 'string', default: 'validation/sbc' }, seed: { type: 'string', default: '2018' }, resume: { type: 'boolean', default: false } } });
+  const { values } = parseArgs({ options: { n: { type: 'string', default: '100' }, stars: { type: 'string', default: '300' }, steps: { type: 'string', default: '200' }, out: { type: 'string', default: 'validation/sbc' }, seed: { type: 'string', default: '2018' }, resume: { type: 'boolean', default: false }, auto: { type: 'boolean', default: false } } });
   const n = Number(values.n);
   const out = resolve(values.out as string);
   mkdirSync(dirname(out), { recursive: true });
@@ -149,9 +163,9 @@ async function main(): Promise<void> {
       for (let k = 0; k < NAMES.length; k++) rng.uniform();
       continue;
     }
-    const r = await replicate(i, Number(values.seed) * 1000 + i + 1, Number(values.stars), Number(values.steps), rng);
+    const r = await replicate(i, Number(values.seed) * 1000 + i + 1, Number(values.stars), Number(values.steps), values.auto === true, rng);
     reps.push(r);
-    process.stderr.write(`replication ${i + 1}/${n}: ${r.seconds.toFixed(1)} s, ranks ${NAMES.map((nm) => r.rank[nm]).join(' ')}\n`);
+    process.stderr.write(`replication ${i + 1}/${n}: ${r.seconds.toFixed(1)} s, ${r.steps} steps, R-hat max ${(r.rhatMax as number).toFixed(3)}, ranks ${NAMES.map((nm) => r.rank[nm]).join(' ')}\n`);
     writeFileAtomic(`${out}.json`, `${JSON.stringify(reps)}\n`);
   }
   const f = figures(reps);
