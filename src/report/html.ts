@@ -52,7 +52,7 @@ export function renderReportHtml(c: ReportContent): string {
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <title>${esc(c.title)}</title>
 <style>
-body { font-family: "DejaVu Sans", "Helvetica Neue", Arial, sans-serif; color: #1d1d1d; margin: 0 auto; max-width: 1100px; padding: 1.5rem 2rem 4rem; line-height: 1.45; }
+body { font-family: "DejaVu Sans", "Helvetica Neue", Arial, sans-serif; color: #1d1d1d; margin: 0 auto; max-width: 1200px; padding: 1.5rem 2rem 4rem; line-height: 1.45; }
 h1 { font-size: 1.6rem; margin-bottom: 0.2rem; }
 h2 { font-size: 1.2rem; border-bottom: 1px solid #ccc; padding-bottom: 0.2rem; margin-top: 2.2rem; }
 h3 { font-size: 1rem; margin: 1.2rem 0 0.4rem; }
@@ -62,8 +62,8 @@ h3 { font-size: 1rem; margin: 1.2rem 0 0.4rem; }
 .verdict.converged { border-color: #1a7f37; }
 .verdict.run-longer { border-color: #b58100; }
 .verdict.problems { border-color: #b42318; }
-table { border-collapse: collapse; font-variant-numeric: tabular-nums; }
-th, td { padding: 0.25rem 0.7rem; border-bottom: 1px solid #e2e2e2; text-align: right; }
+table { border-collapse: collapse; font-variant-numeric: tabular-nums; font-size: 0.9rem; }
+th, td { padding: 0.25rem 0.5rem; border-bottom: 1px solid #e2e2e2; text-align: right; }
 th:first-child, td:first-child { text-align: left; }
 th { background: #f0f0f0; font-weight: 600; }
 dl { display: grid; grid-template-columns: max-content 1fr; gap: 0.3rem 1.2rem; }
