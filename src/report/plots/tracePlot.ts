@@ -28,8 +28,8 @@ export function tracePlotSpec(params: TraceParameter[], steps: ArrayLike<number>
         mark: { type: 'line', strokeWidth: 0.6, opacity: 0.7 },
         encoding: {
           x: { field: 'step', type: 'quantitative', scale: { nice: false }, axis: last ? { title: 'step' } : { labels: false, title: null } },
-          // Flush end labels and a fixed label extent keep the panels evenly spaced and their titles aligned.
-          y: { field: 'v', type: 'quantitative', scale: { zero: false }, title: p.label, axis: { labelFlush: true, minExtent: 48, maxExtent: 48, tickCount: 4 } },
+          // A fixed label extent keeps the panels aligned; an un-niced y domain keeps tick labels off the panel ends (flush end labels would crowd their neighbours).
+          y: { field: 'v', type: 'quantitative', scale: { zero: false, nice: false, padding: 4 }, title: p.label, axis: { labelFlush: true, minExtent: 48, maxExtent: 48, tickCount: 4 } },
           detail: { field: 'w', type: 'nominal' },
           color: p.groups
             ? { field: 'g', type: 'nominal', title: 'ensemble', scale: { range: LINE_COLOURS } }
@@ -42,5 +42,5 @@ export function tracePlotSpec(params: TraceParameter[], steps: ArrayLike<number>
     }
     return { width: opts.width ?? 560, height: 90, layer };
   });
-  return { $schema: 'https://vega.github.io/schema/vega-lite/v6.json', config: PLOT_CONFIG, spacing: 10, vconcat: panels } as TopLevelSpec;
+  return { $schema: 'https://vega.github.io/schema/vega-lite/v6.json', config: PLOT_CONFIG, bounds: 'flush', spacing: 22, vconcat: panels } as TopLevelSpec;
 }
