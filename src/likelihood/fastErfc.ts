@@ -10,7 +10,7 @@
  * analytic there, so the interpolant converges geometrically: the largest relative error measured against
  * @stdlib's erfcx over 10^6 points on [0, 12] is 2.8e-15, tests/likelihood/fastErfc.test.ts). Beyond 8 it defers to
  * @stdlib's erfcx (its continued fraction), which the likelihood reaches rarely. The table holds no
- * transcribed constants: it is rebuilt from the library on every start.
+ * hand-copied constants: it is rebuilt from the library on every start.
  *
  * erfc(x) = exp(-x^2) erfcx(x) for x >= 0 (the rounding of x^2 costs at most x^2 * 1.1e-16 relative, below
  * 1e-13 up to x = 26; measured against @stdlib's erfc on [-7, 26]: 5.7e-14 at most), and 2 - erfc(-x) for

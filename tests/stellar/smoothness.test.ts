@@ -94,25 +94,36 @@ function steepWindow(iso: Isochrone, k: number, Z: number): string {
   return '';
 }
 
+/**
+ * Where node k of isochrone a falls in b: the bracketing nodes lo, hi of b at a's phase coordinate and the
+ * linear weight s, or undefined outside b's range, across a jump between phases (the helium flash), or in a
+ * phase that b lacks there.
+ */
+function bracket(a: Isochrone, k: number, b: Isochrone): { lo: number; hi: number; s: number } | undefined {
+  const n = b.phaseCoord.length;
+  const c = a.phaseCoord[k];
+  if (c < b.phaseCoord[0] || c > b.phaseCoord[n - 1]) return undefined;
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (b.phaseCoord[mid] <= c) lo = mid;
+    else hi = mid;
+  }
+  if (b.phase[lo] !== a.phase[k] || b.phase[hi] !== a.phase[k]) return undefined;
+  return { lo, hi, s: (c - b.phaseCoord[lo]) / (b.phaseCoord[hi] - b.phaseCoord[lo]) };
+}
+
 /** Compare b with a at a's phase coordinates, interpolating b linearly in phase coordinate within a phase. */
 function compare(a: Isochrone, b: Isochrone, label: string, strict: Worst, windows: Map<string, Worst>): number {
   let compared = 0;
-  const n = b.phaseCoord.length;
   const Za = fehToZ(a.feh);
   const extrapolatedZ = Math.max(Za, fehToZ(b.feh)) > 0.03;
   for (let k = 0; k < a.phaseCoord.length; k++) {
     const c = a.phaseCoord[k];
-    if (c < b.phaseCoord[0] || c > b.phaseCoord[n - 1]) continue;
-    let lo = 0;
-    let hi = n - 1;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (b.phaseCoord[mid] <= c) lo = mid;
-      else hi = mid;
-    }
-    // Never across a jump between phases (the helium flash) or into a phase that b lacks.
-    if (b.phase[lo] !== a.phase[k] || b.phase[hi] !== a.phase[k]) continue;
-    const s = (c - b.phaseCoord[lo]) / (b.phaseCoord[hi] - b.phaseCoord[lo]);
+    const at = bracket(a, k, b);
+    if (!at) continue;
+    const { lo, hi, s } = at;
     const dMbol = 2.5 * Math.abs(b.logL[lo] + s * (b.logL[hi] - b.logL[lo]) - a.logL[k]);
     const dT = Math.abs(b.logTeff[lo] + s * (b.logTeff[hi] - b.logTeff[lo]) - a.logTeff[k]);
     compared++;
@@ -225,19 +236,10 @@ describe('smoothness in the built-in photometry\'s bands (known failure on the c
     const a = isochrone(age, feh, real);
     const b = isochrone(age, feh + step, real);
     const Za = fehToZ(feh);
-    const n = b.phaseCoord.length;
     for (let k = 0; k < a.phaseCoord.length; k++) {
-      const c = a.phaseCoord[k];
-      if (c < b.phaseCoord[0] || c > b.phaseCoord[n - 1] || steepWindow(a, k, Za)) continue;
-      let lo = 0;
-      let hi = n - 1;
-      while (hi - lo > 1) {
-        const mid = (lo + hi) >> 1;
-        if (b.phaseCoord[mid] <= c) lo = mid;
-        else hi = mid;
-      }
-      if (b.phase[lo] !== a.phase[k] || b.phase[hi] !== a.phase[k]) continue;
-      const s = (c - b.phaseCoord[lo]) / (b.phaseCoord[hi] - b.phaseCoord[lo]);
+      const at = steepWindow(a, k, Za) ? undefined : bracket(a, k, b);
+      if (!at) continue;
+      const { lo, hi, s } = at;
       const dLogTeff = b.logTeff[lo] + s * (b.logTeff[hi] - b.logTeff[lo]) - a.logTeff[k];
       for (let j = 0; j < bands.length; j++) {
         const d = Math.abs(b.absMag[j][lo] + s * (b.absMag[j][hi] - b.absMag[j][lo]) - a.absMag[j][k]);

@@ -116,7 +116,7 @@ export function computeCoefficients(Z: number): Coefficients {
   // over from its power law at Z = 0.00100 while b3 is near its maximum (0.971 at Z = 0.00103), and b1 leaves
   // its 0.54 cap at Z = 0.00277. Between Z of about 0.0012 and 0.0037 this makes the upper giant branch up to
   // 1000 K cooler than at both lower and higher Z (checked against independent evaluations of the Appendix;
-  // tests/stellar/isochroneMagnitudes.test.ts and smoothness.test.ts give the figures). Not a transcription error.
+  // tests/stellar/isochroneMagnitudes.test.ts and smoothness.test.ts give the figures). Not a copying slip: the numbers match the paper.
   b[1] = Math.min(0.54, b[1]);
   b[2] = 10 ** (-4.6739 - 0.9394 * sigma);
   b[2] = Math.min(Math.max(b[2], -0.04167 + 55.67 * Z), 0.4771 - 9329.21 * Z ** 2.94);
