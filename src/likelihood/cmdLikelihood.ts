@@ -15,7 +15,7 @@
  * parallaxes are used. log L = sum_i log L_i, summed with Neumaier's compensation.
  *
  * S_i and B_i come from closed-form segment integrals (segmentIntegral.ts) over the model polyline
- * (polyline.ts) and the binary curves (binaryCurves.ts, qGrid.ts), pruned with a bucket index
+ * (polyline.ts) and the binary curves (binaryTerm.ts, binaryCurves.ts, qGrid.ts), pruned with a bucket index
  * (segmentIndex.ts): a segment is skipped when an upper bound on its contribution is below e^-14 (default) of the
  * largest bound among the star's candidates, and the index query radius is widened until no segment
  * outside it could pass that test.
@@ -30,15 +30,15 @@ import type { BandId } from '../core/bands.js';
 import { InputError, ModelError } from '../core/errors.js';
 import { logAddExp } from '../core/sum.js';
 import type { ExtinctionModel, Isochrone, IsochroneSource } from '../stellar/types.js';
-import { BinaryCurveBuilder } from './binaryCurves.js';
+import { BinaryTerm, qGridForErrors } from './binaryTerm.js';
 import { buildKde, logKdeField, logUniformField, type KdeField } from './fieldDensity.js';
 import { makeImf, type Imf } from './imf.js';
 import { withDefaults, type LikelihoodOptions } from './options.js';
 import { ModelPolyline } from './polyline.js';
-import { QGrid } from './qGrid.js';
+import type { QGrid } from './qGrid.js';
 import { logSegmentIntegral, segmentMinQ } from './segmentIntegral.js';
 import { SegmentIndex } from './segmentIndex.js';
-import { SegmentSet } from './segmentSet.js';
+import { segmentBounds, type SegmentSet } from './segmentSet.js';
 import { completenessAt, Selection, type CompletenessTable, type ErrorLaw } from './selection.js';
 import { parallaxMasFromDm, thetaObject, type ClusterParameters } from './theta.js';
 
@@ -92,24 +92,14 @@ export class CmdLikelihood {
 
   private readonly nBands: number;
   private readonly bandIndex: Int32Array;
-  /** The binary curves of each q class (qGrid.classOf), built on first use after each prepare. */
-  private readonly classSets: SegmentSet[];
-  private readonly classBuilt: Uint8Array;
-  /** Per class: segmentBounds with the level-free weights qGrid.lnPrune. */
-  private readonly classBound: Float64Array[];
-  private readonly binaryBuilder: BinaryCurveBuilder;
+  /** The unresolved binaries: their curves, indices and per-star quadrature over q. */
+  private readonly binary: BinaryTerm;
   private readonly singleIndex: (SegmentIndex | undefined)[];
-  private readonly classIndex: (SegmentIndex | undefined)[][];
-  private readonly classIndexPool: (SegmentIndex | undefined)[][];
   private readonly refBand: Uint8Array;
   /** The order in which the star loop visits the stars (see the constructor). */
   private readonly order: Int32Array;
   /** Per star: its q level (the qStepSigma rule). */
   private readonly level: Uint8Array;
-  /** First primary node whose binaries any star can see, for the current parameters. */
-  private kStart = 0;
-  /** Per-curve log selection integrals, scratch for Z_B. */
-  private readonly zCurve: Float64Array;
   private readonly lnZs: Float64Array;
   private readonly lnZb: Float64Array;
   private readonly hasMembership: boolean;
@@ -130,12 +120,6 @@ export class CmdLikelihood {
   private cC = new Float64Array(1024);
   private cUb = new Float64Array(1024);
   private cSeg = new Int32Array(1024);
-  // per-star binary segment integrals (without q weight) and their curves, see logBinary
-  private itemVal = new Float64Array(1024);
-  private itemCurve = new Int32Array(1024);
-  private nItems = 0;
-  private itemMax = -Infinity;
-  private binMaxUb = -Infinity;
 
   constructor(data: CatalogArrays, source: IsochroneSource, extinction: ExtinctionModel, options: Partial<LikelihoodOptions> = {}) {
     this.options = withDefaults(options);
@@ -305,29 +289,15 @@ export class CmdLikelihood {
 
     // Evaluation structures.
     this.poly = new ModelPolyline(nb);
-    this.binaryBuilder = new BinaryCurveBuilder(nb);
-    // Enough q levels that the star with the smallest errors (at sigmaExtra = 0) gets steps below qStepSigma.
     let sMax = 0;
     for (let i = 0; i < n; i++) {
       let s = 0;
       for (let b = 0; b < nb; b++) if (this.mask[i] & (1 << b)) s += 1 / (data.err[b][i] * data.err[b][i]);
       if (s > sMax) sMax = s;
     }
-    // Levels from 64 to at most 256 intervals, enough that the smallest errors get steps below qStepSigma.
-    let levels = 1;
-    for (; levels < 3; levels++) {
-      const g = new QGrid({ qMin: o.qMin, gamma: o.qGamma }, levels);
-      if (g.maxStepMag[0] * Math.sqrt(sMax) <= o.qStepSigma) break;
-    }
-    this.qGrid = new QGrid({ qMin: o.qMin, gamma: o.qGamma }, levels);
+    this.qGrid = qGridForErrors(o.qMin, o.qGamma, o.qStepSigma, sMax);
+    this.binary = new BinaryTerm(this.poly, this.qGrid, { prune: o.prune, pruneLogRatio: o.pruneLogRatio });
     this.singleIndex = new Array(nb).fill(undefined);
-    const nq = this.qGrid.nLevels;
-    this.classSets = Array.from({ length: nq }, () => new SegmentSet(nb, 1024));
-    this.classBuilt = new Uint8Array(nq);
-    this.classBound = Array.from({ length: nq }, () => new Float64Array(2));
-    this.classIndex = Array.from({ length: nq }, () => new Array(nb).fill(undefined));
-    this.classIndexPool = Array.from({ length: nq }, () => new Array(nb).fill(undefined));
-    this.zCurve = new Float64Array(this.qGrid.n0 + 1);
     this.refBand = new Uint8Array(n);
     for (let i = 0; i < n; i++) {
       let b = 0;
@@ -481,17 +451,15 @@ export class CmdLikelihood {
         while (l > 0 && grid.maxStepMag[l] * sq > this.options.qStepSigma) l--;
         this.level[i] = l;
       }
-      this.kStart = this.firstVisiblePrimary(sx2);
+      // Binary curves and indices are built lazily: mark them stale.
+      this.binary.reset(this.firstVisiblePrimary(sx2));
     }
-    // Binary curves and indices are built lazily (ensureClass, indexFor): mark them stale.
-    this.classBuilt.fill(0);
     segmentBounds(this.poly.segments, undefined, 1, this.singleBound);
     for (let b = 0; b < this.nBands; b++) this.singleIndex[b] = undefined;
-    for (const row of this.classIndex) for (let b = 0; b < this.nBands; b++) row[b] = undefined;
     // Selection normalisations per band pattern.
     for (let pi = 0; pi < this.patterns.length; pi++) {
       this.lnZs[pi] = this.selection.logNormalisation(this.poly.segments, undefined, this.patterns[pi], p.sigmaExtra);
-      this.lnZb[pi] = needBinaries ? this.binaryNormalisation(this.patterns[pi], p.sigmaExtra) : -Infinity;
+      this.lnZb[pi] = needBinaries ? this.binary.normalisation(this.selection, this.patterns[pi], p.sigmaExtra) : -Infinity;
     }
     this.status = 'ok';
     return true;
@@ -514,59 +482,19 @@ export class CmdLikelihood {
     return k;
   }
 
-  /** The index of the single-star polyline (level -1) or of q class `level`, in reference band `band`. */
-  private indexFor(level: number, band: number, binary: boolean): SegmentIndex {
-    const slot = binary ? this.classIndex[level] : this.singleIndex;
-    let ix = slot[band];
+  /** The index of the single-star polyline in reference band `band`, built on first use. */
+  private singleIndexFor(band: number): SegmentIndex {
+    let ix = this.singleIndex[band];
     if (!ix) {
-      ix = (binary ? this.classIndexPool[level][band] : this.singleIndexPool[band]) ?? new SegmentIndex();
-      if (binary) this.classIndexPool[level][band] = ix;
-      else this.singleIndexPool[band] = ix;
-      ix.build(binary ? this.ensureClass(level) : this.poly.segments, band, 0.1, 1, binary);
-      slot[band] = ix;
+      ix = this.singleIndexPool[band] ?? new SegmentIndex();
+      this.singleIndexPool[band] = ix;
+      ix.build(this.poly.segments, band, 0.1, 1, false);
+      this.singleIndex[band] = ix;
     }
     return ix;
   }
   private readonly singleIndexPool: SegmentIndex[] = [];
 
-  /** The binary curves of q class c (qGrid.classOf) at the current parameters, built on first use. */
-  private ensureClass(c: number): SegmentSet {
-    const set = this.classSets[c];
-    if (!this.classBuilt[c]) {
-      const { first, stride } = this.qGrid.classNodes(c);
-      this.binaryBuilder.build(this.poly, this.qGrid, stride, set, this.kStart, first);
-      segmentBounds(set, this.qGrid.lnPrune, 1, this.classBound[c]);
-      this.classBuilt[c] = 1;
-    }
-    return set;
-  }
-
-  /**
-   * log Z_B for band pattern `mask`: per-curve selection integrals (Selection.accumulateCurves) summed
-   * with the weights of nested q levels, from 64 intervals (checked against 32) towards the finest,
-   * stopping at the first level that agrees with the next coarser one within Z_Q_TOLERANCE. The selection
-   * integrand is smooth in q (a curve's selected weight changes with q only through where it crosses the
-   * window's edges, on the scale of the typical errors there); in the benchmark's setting 64 and 128
-   * intervals agree to 1.4e-7, 32 and 64 to 3.4e-4. Coarser starts are not used: two coarse levels can agree
-   * by chance while both are off (seen for single stars' binary integrals, logBinary). See Z_Q_TOLERANCE.
-   */
-  private binaryNormalisation(mask: number, sigmaExtra: number): number {
-    const grid = this.qGrid;
-    const z = this.zCurve;
-    z.fill(-Infinity);
-    const top = grid.nLevels - 1;
-    const lvl64 = Math.max(0, top - 3);
-    for (let c = top; c > lvl64; c--) this.selection.accumulateCurves(this.ensureClass(c), mask, sigmaExtra, z);
-    let prev = curveLevelSum(z, grid.lnWeight[lvl64 + 1]);
-    for (let l = lvl64; l >= 0; l--) {
-      this.selection.accumulateCurves(this.ensureClass(l), mask, sigmaExtra, z);
-      const cur = curveLevelSum(z, grid.lnWeight[l]);
-      if (cur === -Infinity && prev === -Infinity) return -Infinity;
-      if (Math.abs(Math.expm1(prev - cur)) <= Z_Q_TOLERANCE) return cur;
-      prev = cur;
-    }
-    return prev;
-  }
 
   private run(p: ClusterParameters, out: Responsibilities | undefined): number {
     const f = p.fBinary;
@@ -636,9 +564,9 @@ export class CmdLikelihood {
         const negligible = lnFieldTerm - 40 - (lnPi + lnNorm + plxTerm);
         const zS = intrinsic ? lnZc[pat] : this.lnZs[pat];
         const zB = intrinsic ? lnZc[pat] : this.lnZb[pat];
-        if (needSingles) lnS = lnNorm + this.logComponent(polySet, this.indexFor(0, rb, false), undefined, this.singleBound, 1, negligible - lnOneMinusF + zS);
+        if (needSingles) lnS = lnNorm + this.logComponent(polySet, this.singleIndexFor(rb), undefined, this.singleBound, 1, negligible - lnOneMinusF + zS);
         if (needBinaries) {
-          lnB = lnNorm + this.logBinary(this.level[i], rb, negligible - lnF + zB);
+          lnB = lnNorm + this.binary.logIntegral(m, iv, this.level[i], rb, negligible - lnF + zB);
         }
         let a: number;
         let c: number;
@@ -796,216 +724,6 @@ export class CmdLikelihood {
     }
     return mx === -Infinity ? -Infinity : mx + Math.log(acc);
   }
-  /**
-   * log of the binary integral for the current star (this.sm / this.siv), without the Gaussian's constant:
-   * sum over the q nodes j of level l (the star's level from the qStepSigma rule) of w_l(j) I_j, where I_j
-   * is the closed-form integral along curve j. The level's curves are those of classes l and coarser
-   * (qGrid.classOf), each with its own index; pruning is as in logComponent, with the level-free weight
-   * bound qGrid.lnPrune and the running largest bound over the classes gathered so far.
-   *
-   * Tried and left out: stopping at the first level that agrees with the next coarser one (nested levels as
-   * in adaptive quadrature). At 1e-4 relative it saved 12% of the segment integrals but moved log L_i by up
-   * to 2.5e-4 against the fixed level (coarse levels can agree by chance, e.g. 16 and 8 intervals to 3e-5
-   * while both are 7% off for a faint red star whose q integrand falls from q = qMin over a tenth of the
-   * range); at 1e-5 it saved 2%. A locally adaptive trapezoid (panels halved where |T_h - T_2h| / 3 exceeds
-   * their share) integrated as many curves as the fixed level.
-   */
-  private logBinary(l: number, rb: number, negligible: number): number {
-    const grid = this.qGrid;
-    this.nItems = 0;
-    this.itemMax = -Infinity;
-    this.binMaxUb = -Infinity;
-    // The weights of level l are at most lnPrune + l ln 2 (qGrid.ts).
-    const neg = negligible - l * Math.LN2;
-    for (let c = grid.nLevels - 1; c >= l; c--) this.gatherClass(c, rb, neg);
-    return itemLevelSum(this.itemVal, this.itemCurve, this.nItems, this.itemMax, grid.lnWeight[l]);
-  }
-
-  /**
-   * Integrate, for the current star, the segments of q class c that can matter (see logComponent for the
-   * pruning and the widening of the query), appending each integral (without q weight) and its curve to the
-   * star's items. Reads the segments from the index's records (sequential memory), not from the set.
-   */
-  private gatherClass(c: number, rb: number, negligible: number): void {
-    const set = this.ensureClass(c);
-    if (set.n === 0) return;
-    this.ensureCandidates(set.n);
-    if (this.itemVal.length < this.nItems + set.n) {
-      const cap = Math.max(this.nItems + set.n, 2 * this.itemVal.length);
-      const v = new Float64Array(cap);
-      v.set(this.itemVal.subarray(0, this.nItems));
-      const k = new Int32Array(cap);
-      k.set(this.itemCurve.subarray(0, this.nItems));
-      this.itemVal = v;
-      this.itemCurve = k;
-    }
-    if (!this.options.prune) {
-      this.gatherAll(set);
-      return;
-    }
-    const nb = this.nBands;
-    const m = this.sm;
-    const iv = this.siv;
-    const lnP = this.qGrid.lnPrune;
-    const bound = this.classBound[c];
-    const cut = this.options.pruneLogRatio;
-    let ivMin = Infinity;
-    let allBands = true;
-    for (let b = 0; b < nb; b++) {
-      if (iv[b] > 0) ivMin = Math.min(ivMin, iv[b]);
-      else allBands = false;
-    }
-    const G = allBands ? Math.min(bound[0], bound[1] + 0.5 * Math.log((2 * Math.PI) / ivMin)) : bound[0];
-    const lnCount = Math.log(set.n + 1);
-    const index = this.indexFor(c, rb, true);
-    const rec = index.rec;
-    const stride = index.stride;
-    const oS = 2 * nb;
-    const oD = 3 * nb;
-    const oW = 4 * nb;
-    let R2 = 2 * cut + 9;
-    let kept = 0;
-    let maxUb = this.binMaxUb;
-    for (;;) {
-      // The index does the box test, on boxes stored in its own (sequential) order.
-      const nCand = index.queryBox(m, iv, R2, this.cand);
-      kept = 0;
-      maxUb = this.binMaxUb;
-      for (let k = 0; k < nCand; k++) {
-        const o = this.cand[k] * stride;
-        let A = 0;
-        let B = 0;
-        let C = 0;
-        for (let b = 0; b < nb; b++) {
-          const w = iv[b];
-          const e = rec[o + oD + b];
-          const r = m[b] - rec[o + oS + b];
-          A += w * e * e;
-          B += w * e * r;
-          C += w * r * r;
-        }
-        const ub = rec[o + oW + 3] + lnP[rec[o + oW + 4]] - 0.5 * segmentMinQ(A, B, C) + (A > 2 * Math.PI ? 0.5 * Math.log((2 * Math.PI) / A) : 0);
-        this.cA[kept] = A;
-        this.cB[kept] = B;
-        this.cC[kept] = C;
-        this.cUb[kept] = ub;
-        this.cSeg[kept] = o;
-        kept++;
-        if (ub > maxUb) maxUb = ub;
-      }
-      if (kept === 0) {
-        // Every segment of the class lies beyond Mahalanobis distance sqrt(R2): its sum is below this bound,
-        // and when it is also below the cut no segment of the class could be kept.
-        if (G + lnCount - 0.5 * R2 < negligible || G - 0.5 * R2 < this.binMaxUb - cut) return;
-        R2 *= 4;
-        if (R2 > 1e7) {
-          this.gatherAll(set);
-          return;
-        }
-        continue;
-      }
-      if (G - 0.5 * R2 < maxUb - cut) break;
-      R2 = 2 * (G - maxUb + cut) + 1;
-    }
-    this.binMaxUb = maxUb;
-    const floor = maxUb - cut;
-    let n = this.nItems;
-    let mx = this.itemMax;
-    for (let k = 0; k < kept; k++) {
-      if (this.cUb[k] < floor) continue;
-      const o = this.cSeg[k];
-      const l = logSegmentIntegral(this.cA[k], this.cB[k], this.cC[k], rec[o + oW], rec[o + oW + 1], rec[o + oW + 2]);
-      if (l === -Infinity) continue;
-      const j = rec[o + oW + 4];
-      this.itemVal[n] = l;
-      this.itemCurve[n] = j;
-      n++;
-      if (l + lnP[j] > mx) mx = l + lnP[j];
-    }
-    this.nItems = n;
-    this.itemMax = mx;
-  }
-
-  /** Every segment of `set`, integrated for the current star (no pruning: checks and benchmarks). */
-  private gatherAll(set: SegmentSet): void {
-    const nb = this.nBands;
-    const m = this.sm;
-    const iv = this.siv;
-    const lnP = this.qGrid.lnPrune;
-    let n = this.nItems;
-    let mx = this.itemMax;
-    for (let s = 0; s < set.n; s++) {
-      let A = 0;
-      let B = 0;
-      let C = 0;
-      for (let b = 0; b < nb; b++) {
-        const w = iv[b];
-        const e = set.delta[b][s];
-        const r = m[b] - set.start[b][s];
-        A += w * e * e;
-        B += w * e * r;
-        C += w * r * r;
-      }
-      const l = logSegmentIntegral(A, B, C, set.c0[s], set.c1[s], set.c2[s]);
-      if (l === -Infinity) continue;
-      const j = set.curve[s];
-      this.itemVal[n] = l;
-      this.itemCurve[n] = j;
-      n++;
-      if (l + lnP[j] > mx) mx = l + lnP[j];
-    }
-    this.nItems = n;
-    this.itemMax = mx;
-  }
-}
-
-/**
- * Z_B enters every star's log L alike, so its error adds up over a catalogue: 1e-6 relative costs at most
- * 0.01 in log L at 10^4 stars. With the error falling by a factor >= 16 per halving (Gregory's rule, O(h^4)),
- * the accepted level errs by under 1e-6 / 15.
- */
-const Z_Q_TOLERANCE = 1e-6;
-/** log sum_j exp(v[j] + lnW[j]) over the curves with a finite weight. */
-function curveLevelSum(v: Float64Array, lnW: Float64Array): number {
-  let mx = -Infinity;
-  for (let j = 0; j < v.length; j++) if (lnW[j] > -Infinity && v[j] + lnW[j] > mx) mx = v[j] + lnW[j];
-  if (mx === -Infinity) return -Infinity;
-  let s = 0;
-  for (let j = 0; j < v.length; j++) if (lnW[j] > -Infinity) s += Math.exp(v[j] + lnW[j] - mx);
-  return mx + Math.log(s);
-}
-
-/** log sum over items of exp(val + lnW[curve]), items whose curve has weight at the level; `ref` >= every val + lnW - small. */
-function itemLevelSum(val: Float64Array, curve: Int32Array, n: number, ref: number, lnW: Float64Array): number {
-  if (ref === -Infinity) return -Infinity;
-  let s = 0;
-  for (let k = 0; k < n; k++) {
-    const w = lnW[curve[k]];
-    if (w > -Infinity) s += Math.exp(val[k] + w - ref);
-  }
-  return s > 0 ? ref + Math.log(s) : -Infinity;
-}
-
-/**
- * [max over segments of lnWmax + lw, max over segments of lnWmax + lw - ln |e|]: the largest peak weight,
- * and the largest peak weight per unit magnitude length, of the segments in use (curve -1 or a multiple of
- * step). Used to bound what a segment outside a query radius could contribute.
- */
-function segmentBounds(set: SegmentSet, lnCW: Float64Array | undefined, step: number, out: Float64Array): void {
-  let w = -Infinity;
-  let d = -Infinity;
-  for (let s = 0; s < set.n; s++) {
-    const c = set.curve[s];
-    if (c >= 0 && c % step !== 0) continue;
-    const lw = set.lnWmax[s] + (lnCW === undefined ? 0 : lnCW[c]);
-    let e2 = 0;
-    for (let b = 0; b < set.nBands; b++) e2 += set.delta[b][s] * set.delta[b][s];
-    if (lw > w) w = lw;
-    const ld = lw - 0.5 * Math.log(Math.max(e2, 1e-300));
-    if (ld > d) d = ld;
-  }
-  out[0] = w;
-  out[1] = d;
 }
 
 function isNamed(t: ArrayLike<number> | ClusterParameters): t is ClusterParameters {

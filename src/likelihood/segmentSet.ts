@@ -85,3 +85,25 @@ export class SegmentSet {
     this.curve[k] = curve;
   }
 }
+
+/**
+ * [max over segments of lnWmax + lw, max over segments of lnWmax + lw - ln |e|]: the largest peak weight,
+ * and the largest peak weight per unit magnitude length, of the segments in use (curve -1 or a multiple of
+ * step). Used to bound what a segment outside a query radius could contribute.
+ */
+export function segmentBounds(set: SegmentSet, lnCW: Float64Array | undefined, step: number, out: Float64Array): void {
+  let w = -Infinity;
+  let d = -Infinity;
+  for (let s = 0; s < set.n; s++) {
+    const c = set.curve[s];
+    if (c >= 0 && c % step !== 0) continue;
+    const lw = set.lnWmax[s] + (lnCW === undefined ? 0 : lnCW[c]);
+    let e2 = 0;
+    for (let b = 0; b < set.nBands; b++) e2 += set.delta[b][s] * set.delta[b][s];
+    if (lw > w) w = lw;
+    const ld = lw - 0.5 * Math.log(Math.max(e2, 1e-300));
+    if (ld > d) d = ld;
+  }
+  out[0] = w;
+  out[1] = d;
+}
