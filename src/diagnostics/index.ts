@@ -19,3 +19,4 @@ export { ensembleAgreement, AGREEMENT_ALPHA, type EnsembleAgreement } from './en
 export { diagnose, diagnosisOf, CHAIN_CONVENTION, type DiagnoseInput, type Diagnosis, type ParameterDiagnosis } from './diagnose.js';
 export { verdict, type Verdict, type VerdictStatus } from './verdict.js';
 export { tauOfRows } from './tauEstimator.js';
+export { meetsThresholdsOfRows } from './thresholdsOfRows.js';

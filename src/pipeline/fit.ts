@@ -9,7 +9,7 @@
  *  4. initialisation: prior draws, the best of them polished by Nelder–Mead (each start runs concurrently on
  *     the worker pool), then every ensemble starts in a small ball around the best optimum;
  *  5. sampling: K ensembles on the pool, chains streamed to Arrow files, checkpoints, a fixed number of
- *     steps or the automatic stop at `tau_multiple` tau; SIGINT / SIGTERM stop at a step boundary with a
+ *     steps or the automatic stop (`tau_multiple` tau, then R-hat and ESS past the verdict's thresholds); SIGINT / SIGTERM stop at a step boundary with a
  *     checkpoint (exit 130), and `resume` continues bit for bit;
  *  6. post-processing: diagnostics.json, summary.{txt,csv,json,tex}, and stars.arrow (starResults.ts).
  *
@@ -26,7 +26,7 @@ import type { ClusterParameterName } from '../core/parameters.js';
 import { coevalVersion } from '../core/version.js';
 import { applyOverrides } from '../config/overrides.js';
 import { configSchema, loadConfig, resolveConfigPath, runDirectory, type CoevalConfig, type LoadedConfig } from '../config/index.js';
-import { tauOfRows } from '../diagnostics/index.js';
+import { meetsThresholdsOfRows, tauOfRows } from '../diagnostics/index.js';
 import { createRunDirectory, newRunId, openRunDirectory, RUN_FORMAT, RUN_LAYOUT, RunChainWriter, writeManifest } from '../io/index.js';
 import { catalogArrays } from '../likelihood/spec.js';
 import type { CmdLikelihood } from '../likelihood/cmdLikelihood.js';
@@ -225,7 +225,7 @@ function runProvenance(setup: StellarSetup, model: FitManifestSection['model']):
 
 function stopRule(s: CoevalConfig['sampler']): StopRule {
   return s.stop === 'auto'
-    ? { kind: 'auto', maxSteps: s.steps, estimator: tauOfRows, tauMultiple: s.tau_multiple, tauChange: s.tau_change, checkEvery: s.check_every }
+    ? { kind: 'auto', maxSteps: s.steps, estimator: tauOfRows, tauMultiple: s.tau_multiple, tauChange: s.tau_change, checkEvery: s.check_every, convergence: meetsThresholdsOfRows }
     : { kind: 'fixed', steps: s.steps };
 }
 
@@ -376,7 +376,7 @@ export async function fit(options: FitOptions): Promise<FitResult> {
       sink = RunChainWriter.create(dir, m, { blobNames: POSTERIOR_BLOBS });
     }
     const stepsBefore = samplers[0].step;
-    log(`sampling: ${m.nEnsembles} ensembles x ${nWalkers} walkers, ${ndim} parameters, ${c.sampler.stop === 'auto' ? `automatic stop at ${c.sampler.tau_multiple} tau (cap ${c.sampler.steps} steps)` : `${c.sampler.steps} steps`}, ${evaluator.workers} worker(s)`);
+    log(`sampling: ${m.nEnsembles} ensembles x ${nWalkers} walkers, ${ndim} parameters, ${c.sampler.stop === 'auto' ? `automatic stop at ${c.sampler.tau_multiple} tau with R-hat and ESS past the verdict's thresholds (cap ${c.sampler.steps} steps)` : `${c.sampler.steps} steps`}, ${evaluator.workers} worker(s)`);
     t = now();
     try {
       runResult = await runEnsembles({

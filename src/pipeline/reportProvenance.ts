@@ -48,7 +48,7 @@ export function reportProvenance(p: RunPosterior): ReportProvenance {
   items.push([
     'sampler',
     `affine-invariant ensemble sampler: ${manifest.nEnsembles} ensemble(s) x ${manifest.nWalkers} walkers, ${diagnosis.totalSteps.toLocaleString('en-US')} steps, burn-in ${diagnosis.discard.toLocaleString('en-US')} steps (${p.run.discardSource})` +
-      (s ? `; moves ${moves}; stop ${s.stop === 'auto' ? `automatic (${s.tau_multiple} tau, tau changing by less than ${100 * s.tau_change}%, at most ${s.steps.toLocaleString('en-US')} steps)` : `after ${s.steps.toLocaleString('en-US')} steps`}; every ${s.thin} step(s) stored; start: ${s.init}` : ''),
+      (s ? `; moves ${moves}; stop ${s.stop === 'auto' ? `automatic (${s.tau_multiple} tau, tau changing by less than ${100 * s.tau_change}%, R-hat and ESS past the verdict's thresholds, at most ${s.steps.toLocaleString('en-US')} steps)` : `after ${s.steps.toLocaleString('en-US')} steps`}; every ${s.thin} step(s) stored; start: ${s.init}` : ''),
   ]);
   items.push(['seeds', manifest.seeds.join(', ')]);
   if (fit?.timings && Object.keys(fit.timings).length > 0) items.push(['wall-clock time', Object.entries(fit.timings).map(([k, v]) => `${k} ${seconds(v)}`).join('; ')]);

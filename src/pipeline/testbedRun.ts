@@ -8,7 +8,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { UsageError } from '../core/errors.js';
 import { coevalVersion } from '../core/version.js';
-import { tauOfRows } from '../diagnostics/index.js';
+import { meetsThresholdsOfRows, tauOfRows } from '../diagnostics/index.js';
 import { createRunDirectory, newRunId, openRunDirectory, RUN_FORMAT, RUN_LAYOUT, RunChainWriter, writeManifest, type RunManifest } from '../io/index.js';
 import { createEnsembles, inThreadEvaluator, resumeEnsembles, runEnsembles, type LogDensity, type RunObserver, type RunResult, type StopRule } from '../sampler/index.js';
 import { gaussianDensity } from '../sampler/targets/index.js';
@@ -99,7 +99,7 @@ export async function runTestbed(o: TestbedOptions): Promise<{ runDir: string; r
   const density = target(rec.ndim);
   const evaluator = inThreadEvaluator(density);
   const checkpointPath = join(dir, RUN_LAYOUT.checkpoint);
-  const stop: StopRule = rec.auto ? { kind: 'auto', maxSteps: rec.steps, estimator: tauOfRows } : { kind: 'fixed', steps: rec.steps };
+  const stop: StopRule = rec.auto ? { kind: 'auto', maxSteps: rec.steps, estimator: tauOfRows, convergence: meetsThresholdsOfRows } : { kind: 'fixed', steps: rec.steps };
   let samplers;
   let resumedFrom;
   let sink: RunChainWriter;

@@ -14,7 +14,7 @@ export { loadLogDensity, type LogDensityFactory, type LogDensitySpec } from './l
 export { initializeEnsemble, type InitMethod, type InitOptions, type PriorSampler, type RandomSource, type OptimumReport } from './initialize.js';
 export { checkNotDegenerate, checkWalkerCount } from './checkEnsemble.js';
 export { nelderMead, type NelderMeadOptions, type NelderMeadResult } from './nelderMead.js';
-export { AutoStop, type StopRule, type TauEstimator, type AutoStopState } from './stopRule.js';
+export { AutoStop, type StopRule, type TauEstimator, type ConvergenceCheck, type AutoStopState } from './stopRule.js';
 export { MemorySink, type ChainSink } from './chainSink.js';
 export { readCheckpoint, writeCheckpoint, CHECKPOINT_FORMAT, CHECKPOINT_VERSION, type Checkpoint } from './checkpoint.js';
 export { runEnsembles, createEnsembles, resumeEnsembles, type RunOptions, type RunResult, type RunInfo, type RunObserver, type CheckpointOptions, type CreateEnsemblesOptions } from './runEnsembles.js';

@@ -2,7 +2,9 @@
  * When to stop. Fixed: after a given number of steps. Automatic: once the run is longer than
  * `tauMultiple` (50) integrated autocorrelation times for every parameter of every ensemble and τ moved by
  * less than `tauChange` (1%) since the previous check, up to a step cap: the practice documented with
- * emcee (Foreman-Mackey et al., "Autocorrelation analysis & convergence"; common practice).
+ * emcee (Foreman-Mackey et al., "Autocorrelation analysis & convergence"; common practice); and, when a
+ * `convergence` check is injected, once the history after the burn-in (2 tau_max) meets it too, so that
+ * the run it hands over passes the verdict's R-hat and ESS thresholds rather than 50 tau alone.
  *
  * τ comes from an injected estimator (src/diagnostics provides the real one; the sampler may not import
  * it). To estimate τ the rule keeps each ensemble's recent history in memory, at most `historyRows` rows:
@@ -19,6 +21,12 @@ import type { EnsembleState } from './types.js';
  */
 export type TauEstimator = (chain: Float64Array, nRows: number, nWalkers: number, ndim: number) => Float64Array;
 
+/**
+ * Whether the ensembles' histories (one per ensemble, laid out as for TauEstimator, `nRows` rows each)
+ * meet the run's convergence thresholds once the first `discardRows` rows are left out.
+ */
+export type ConvergenceCheck = (histories: readonly Float64Array[], nRows: number, nWalkers: number, ndim: number, discardRows: number) => boolean;
+
 export type StopRule =
   | { kind: 'fixed'; steps: number }
   | {
@@ -32,6 +40,8 @@ export type StopRule =
       tauChange?: number;
       /** Check every this many steps; default 100. */
       checkEvery?: number;
+      /** Also required before stopping, once the tau criteria hold (src/diagnostics provides one). */
+      convergence?: ConvergenceCheck;
       /** Rows of history kept per ensemble; default 4096. */
       historyRows?: number;
     };
@@ -52,11 +62,15 @@ export interface StopCheck {
   converged: boolean;
 }
 
+/** Burn-in left out of the convergence check, in tau_max: as the verdict's suggested burn-in (common practice). */
+const BURN_IN_TAU = 2;
+
 export class AutoStop {
   readonly maxSteps: number;
   private readonly estimator: TauEstimator;
   private readonly tauMultiple: number;
   private readonly tauChange: number;
+  private readonly convergence: ConvergenceCheck | undefined;
   readonly checkEvery: number;
   private readonly capacity: number;
   private readonly nWalkers: number;
@@ -72,6 +86,7 @@ export class AutoStop {
     this.tauMultiple = rule.tauMultiple ?? 50;
     this.tauChange = rule.tauChange ?? 0.01;
     this.checkEvery = rule.checkEvery ?? 100;
+    this.convergence = rule.convergence;
     this.capacity = rule.historyRows ?? 4096;
     if (!Number.isInteger(this.maxSteps) || this.maxSteps < 1) throw new RangeError(`the step cap must be a positive integer, got ${this.maxSteps}`);
     if (!Number.isInteger(this.checkEvery) || this.checkEvery < 1) throw new RangeError(`checkEvery must be a positive integer, got ${this.checkEvery}`);
@@ -130,6 +145,18 @@ export class AutoStop {
       }
     }
     this.lastTau = tau;
+    if (converged && this.convergence) {
+      let tMax = 0;
+      for (let j = 0; j < ndim; j++) tMax = Math.max(tMax, tauMax[j]);
+      const size = this.count * this.nWalkers * ndim;
+      converged = this.convergence(
+        this.rows.map((r) => r.subarray(0, size)),
+        this.count,
+        this.nWalkers,
+        ndim,
+        (BURN_IN_TAU * tMax) / this.stride,
+      );
+    }
     return { tau: tauMax, converged };
   }
 

@@ -60,7 +60,7 @@ export const samplerSection = z
     stop: z.enum(['auto', 'fixed']).default('auto'),
     /** Steps to take ("fixed"), or the cap ("auto"). */
     steps: z.number().int().min(1).default(100000),
-    /** auto: stop once steps > tau_multiple x τ for every parameter... */
+    /** auto: stop once steps > tau_multiple x τ for every parameter, R-hat and ESS pass the verdict's thresholds... */
     tau_multiple: z.number().positive().default(50),
     /** ...and τ changed by less than this fraction since the last check. */
     tau_change: z.number().positive().lt(1).default(0.01),
