@@ -20,7 +20,8 @@
  * ends, so the run length must be many autocorrelation times (the script reports the mean tau). Each
  * replication's largest R-hat is kept and the figures say how many ended above 1.01: ranks from chains
  * that have not mixed measure the run length, not the calibration. With --auto the fits use the sampler's
- * automatic stop (50 tau, checked every 100 steps) with --steps as the cap, instead of a fixed length.
+ * automatic stop (50 tau, then R-hat and ESS past the verdict's thresholds, checked every 100 steps) with
+ * --steps as the cap, instead of a fixed length.
  */
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
